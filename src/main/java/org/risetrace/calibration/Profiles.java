@@ -1,0 +1,104 @@
+package org.risetrace.calibration;
+
+import com.fasterxml.jackson.core.JsonProcessingException;
+import com.fasterxml.jackson.databind.DeserializationFeature;
+import com.fasterxml.jackson.databind.ObjectMapper;
+import com.fasterxml.jackson.databind.exc.UnrecognizedPropertyException;
+import org.risetrace.frame.InputRejected;
+
+import java.io.IOException;
+import java.io.InputStream;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.List;
+import java.util.Locale;
+
+/**
+ * Finds calibration profiles. A reference that ends in {@code .json} or contains a path separator is a file
+ * (relative to the series folder when one is given); otherwise it is a name, looked up in {@code ./calibration/}
+ * and then among the profiles bundled in the jar.
+ */
+public final class Profiles {
+    /** Names of the profiles bundled with the tool (the files in the repository's calibration/ folder). */
+    public static final List<String> BUNDLED = List.of("u16-centikelvin", "u16-decikelvin", "f32-celsius", "u8-span");
+
+    private static final ObjectMapper JSON = new ObjectMapper()
+            .enable(DeserializationFeature.FAIL_ON_UNKNOWN_PROPERTIES);
+
+    private Profiles() {
+    }
+
+    public static Profile load(String reference) {
+        return load(reference, null);
+    }
+
+    /** Loads a profile by name or path; {@code baseDir} resolves relative paths (may be null). */
+    public static Profile load(String reference, Path baseDir) {
+        if (reference == null || reference.isBlank())
+            throw new InputRejected(null, "no calibration profile named", "known profiles: " + String.join(", ", BUNDLED));
+        boolean isPath = reference.endsWith(".json") || reference.contains("/") || reference.contains("\\");
+        if (isPath) {
+            Path p = Path.of(reference);
+            if (!p.isAbsolute() && baseDir != null) p = baseDir.resolve(p);
+            if (!Files.isRegularFile(p)) throw new InputRejected(p, "calibration profile file not found");
+            try (InputStream in = Files.newInputStream(p)) {
+                return validate(parse(in, p), p);
+            } catch (IOException e) {
+                throw new InputRejected(p, "cannot read calibration profile: " + e.getMessage());
+            }
+        }
+        Path local = Path.of("calibration", reference + ".json");
+        if (Files.isRegularFile(local)) return load(local.toString(), null);
+        try (InputStream in = Profiles.class.getResourceAsStream("/calibration/" + reference + ".json")) {
+            if (in == null)
+                throw new InputRejected(null, "unknown calibration profile '" + reference + "'",
+                        "known profiles: " + String.join(", ", BUNDLED));
+            Path pseudo = Path.of("calibration", reference + ".json");
+            return validate(parse(in, pseudo), pseudo);
+        } catch (IOException e) {
+            throw new InputRejected(null, "cannot read bundled profile " + reference + ": " + e.getMessage());
+        }
+    }
+
+    private static Profile parse(InputStream in, Path file) throws IOException {
+        try {
+            return JSON.readValue(in, Profile.class);
+        } catch (UnrecognizedPropertyException e) {
+            throw new InputRejected(file, "unknown field '" + e.getPropertyName() + "' at line "
+                    + e.getLocation().getLineNr() + ", column " + e.getLocation().getColumnNr());
+        } catch (JsonProcessingException e) {
+            throw new InputRejected(file, "malformed JSON at line " + e.getLocation().getLineNr() + ", column "
+                    + e.getLocation().getColumnNr() + ": " + e.getOriginalMessage());
+        }
+    }
+
+    private static Profile validate(Profile p, Path file) {
+        String enc = p.encoding() == null ? "" : p.encoding().toLowerCase(Locale.ROOT);
+        switch (enc) {
+            case "linear" -> {
+                if (p.gain() == null || p.offset() == null || p.gain() == 0)
+                    throw new InputRejected(file, "a linear profile needs a non-zero 'gain' and an 'offset'");
+                requireUnit(p, file);
+            }
+            case "float", "matrix" -> requireUnit(p, file);
+            case "span" -> {
+                if (p.spanC() != null && (p.spanC().length != 2 || !(p.spanC()[1] > p.spanC()[0])))
+                    throw new InputRejected(file, "'span_c' must be [low, high] with high > low");
+            }
+            default -> throw new InputRejected(file, "field 'encoding' must be linear, float, span or matrix, not '"
+                    + p.encoding() + "'");
+        }
+        if (!(p.netdK() > 0)) throw new InputRejected(file, "field 'netd_k' must be a positive number of kelvin");
+        if (p.bandUm() == null || p.bandUm().length != 2 || !(p.bandUm()[1] > p.bandUm()[0]) || p.bandUm()[0] <= 0)
+            throw new InputRejected(file, "field 'band_um' must be [from, to] micrometres with to > from > 0");
+        if (!(p.defaultEmissivity() > 0 && p.defaultEmissivity() <= 1))
+            throw new InputRejected(file, "field 'default_emissivity' must be in (0, 1]");
+        if (p.name() == null || p.name().isBlank()) throw new InputRejected(file, "field 'name' is missing");
+        return p;
+    }
+
+    private static void requireUnit(Profile p, Path file) {
+        if (!"K".equalsIgnoreCase(p.unit()) && !"C".equalsIgnoreCase(p.unit()))
+            throw new InputRejected(file, "field 'unit' must be \"K\" or \"C\"");
+    }
+}

@@ -1,0 +1,47 @@
+package org.risetrace;
+
+import com.tngtech.archunit.core.domain.JavaClasses;
+import com.tngtech.archunit.core.importer.ClassFileImporter;
+import com.tngtech.archunit.core.importer.ImportOption;
+import org.junit.jupiter.api.Test;
+
+import static com.tngtech.archunit.lang.syntax.ArchRuleDefinition.noClasses;
+
+/** Keeps the pipeline's dependency arrows (DEVELOPERS.md, "The pipeline") true. */
+class ArchitectureTest {
+    private static final JavaClasses CLASSES = new ClassFileImporter()
+            .withImportOption(ImportOption.Predefined.DO_NOT_INCLUDE_TESTS)
+            .importPackages("org.risetrace");
+
+    private static void mayNotUse(String pkg, String... forbidden) {
+        String[] full = new String[forbidden.length];
+        for (int i = 0; i < forbidden.length; i++) full[i] = "org.risetrace." + forbidden[i] + "..";
+        noClasses().that().resideInAPackage("org.risetrace." + pkg + "..")
+                .should().dependOnClassesThat().resideInAnyPackage(full)
+                .allowEmptyShould(true)
+                .check(CLASSES);
+    }
+
+    @Test
+    void frameDependsOnNothingOfOurs() {
+        mayNotUse("frame", "io", "calibration", "board", "registration", "analysis", "report", "sim", "cli", "web",
+                "archive", "batch");
+    }
+
+    @Test
+    void coreNeverDependsOnUserInterfaces() {
+        for (String core : new String[]{"frame", "io", "calibration", "board", "registration", "analysis", "report",
+                "sim", "archive", "batch"})
+            mayNotUse(core, "cli", "web");
+    }
+
+    @Test
+    void earlyStagesDoNotReachDownstream() {
+        mayNotUse("io", "board", "registration", "analysis", "report", "sim");
+        mayNotUse("calibration", "io", "board", "registration", "analysis", "report", "sim");
+        mayNotUse("board", "io", "registration", "analysis", "report", "sim");
+        mayNotUse("registration", "io", "analysis", "report", "sim");
+        mayNotUse("analysis", "report", "sim");
+        mayNotUse("report", "sim");
+    }
+}

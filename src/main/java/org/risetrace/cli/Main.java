@@ -19,7 +19,6 @@ import picocli.CommandLine.Command;
                 CompareCommand.class,
                 DemoCommand.class,
                 CalibrateCommand.class,
-                BenchCommand.class,
                 CommandLine.HelpCommand.class})
 public final class Main implements Runnable {
     public static final int EXIT_OK = 0;

@@ -1,0 +1,20 @@
+package org.risetrace.analysis;
+
+import org.risetrace.board.Board;
+import org.risetrace.registration.BoardRaster;
+
+import java.util.List;
+
+/**
+ * Everything a report needs: the analysis.json document plus the curves and maps behind it.
+ *
+ * @param result     the analysis.json document
+ * @param board      the board file used
+ * @param curves     rise curves of every part, in rank order
+ * @param riseMap    rise map (last frames minus baseline, smoothed), kelvin
+ * @param onsetMap   per board pixel, seconds from injection start when its rise first exceeded the threshold
+ * @param lastFrame  the last usable frame rectified into board space (absolute degrees Celsius)
+ */
+public record Analysis(AnalysisResult result, Board board, List<RiseCurve> curves,
+                       BoardMap riseMap, BoardMap onsetMap, BoardRaster lastFrame) {
+}

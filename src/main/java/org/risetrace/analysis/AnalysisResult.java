@@ -1,0 +1,46 @@
+package org.risetrace.analysis;
+
+import com.fasterxml.jackson.annotation.JsonProperty;
+import com.fasterxml.jackson.annotation.JsonPropertyOrder;
+import org.risetrace.io.Sidecar;
+
+import java.util.List;
+import java.util.Map;
+
+/**
+ * The analysis.json document (schema documented in the README, section "analysis.json"). Stable: fields are only
+ * ever added.
+ *
+ * @param schema      schema version, "risetrace-analysis/1"
+ * @param tool        "risetrace"
+ * @param version     tool version
+ * @param createdUtc  ISO-8601 instant the analysis ran
+ * @param series      the series folder analysed (as given)
+ * @param board       the board file used
+ * @param profile     calibration profile name
+ * @param parameters  every tunable the analysis used, by name
+ * @param injection   the sidecar's injection record (may be null)
+ * @param verdict     the answer
+ * @param parts       per part, in rank order
+ * @param hotspots    local maxima of the rise map, hottest first
+ * @param frames      every source frame with its hash and registration
+ */
+@JsonPropertyOrder({"schema", "tool", "version", "created_utc", "series", "board", "profile", "parameters",
+        "injection", "verdict", "parts", "hotspots", "frames"})
+public record AnalysisResult(
+        @JsonProperty("schema") String schema,
+        @JsonProperty("tool") String tool,
+        @JsonProperty("version") String version,
+        @JsonProperty("created_utc") String createdUtc,
+        @JsonProperty("series") String series,
+        @JsonProperty("board") String board,
+        @JsonProperty("profile") String profile,
+        @JsonProperty("parameters") Map<String, Object> parameters,
+        @JsonProperty("injection") Sidecar.Injection injection,
+        @JsonProperty("verdict") Verdict verdict,
+        @JsonProperty("parts") List<PartResult> parts,
+        @JsonProperty("hotspots") List<Hotspot> hotspots,
+        @JsonProperty("frames") List<FrameRecord> frames) {
+
+    public static final String SCHEMA = "risetrace-analysis/1";
+}

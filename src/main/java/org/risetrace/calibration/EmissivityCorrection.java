@@ -20,4 +20,13 @@ public final class EmissivityCorrection {
         if (emissivity >= 1.0) return apparentC;
         throw new UnsupportedOperationException("band-radiance correction lands with the radiometry stage");
     }
+
+    /**
+     * The inverse: what a camera set to emissivity 1 reports for an object at {@code objectC}:
+     * L(T_app) = e L(T_obj) + (1 - e) L(T_refl).
+     */
+    public static double apparentCelsius(double objectC, double emissivity, double reflectedC, double[] bandUm) {
+        if (emissivity >= 1.0) return objectC;
+        throw new UnsupportedOperationException("band-radiance correction lands with the radiometry stage");
+    }
 }

@@ -52,10 +52,12 @@ public final class InspectCommand implements Callable<Integer> {
         PrintWriter out = spec.commandLine().getOut();
         PrintWriter err = spec.commandLine().getErr();
         List<FrameSummary> frames = new ArrayList<>();
+        int[] rows = {0};
         List<String> warnings = Inspection.inspect(inputs, profile, maxPixels, s -> {
-            frames.add(json ? s : null);
-            if (!json) {
-                if (frames.size() == 1)
+            if (json) {
+                frames.add(s);
+            } else {
+                if (rows[0]++ == 0)
                     out.printf(Locale.ROOT, "%-32s %-5s %11s %4s %-16s %9s %9s %9s %10s%n", "file", "type", "size",
                             "bits", "profile", "min_c", "mean_c", "max_c", "t_s");
                 out.printf(Locale.ROOT, "%-32s %-5s %11s %4d %-16s %9s %9s %9s %10.3f%n", s.file(), s.container(),

@@ -121,6 +121,7 @@ final class BoardModel {
                 continue;
             }
             double[] cov = traceCoverage.get(src.ref());
+            if (cov == null) continue;
             double total = 0;
             for (double v : cov) total += v;
             if (total == 0) continue;

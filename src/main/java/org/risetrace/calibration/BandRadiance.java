@@ -9,9 +9,10 @@ import java.util.concurrent.ConcurrentHashMap;
  *
  * <p>Between {@value #TABLE_FROM_C} and {@value #TABLE_TO_C} degrees Celsius the radiance and its temperature
  * derivative are tabulated every {@value #STEP_K} K by quadrature ({@link Planck#bandRadiance}) and interpolated by
- * cubic Hermite polynomials; the inverse finds the table interval through an index of equal steps in ln L (the column is
- * monotone) and solves the interval's cubic by Newton's method. The interpolation error is about 1e-11 relative in L and 1e-9 K in T (the step is small
- * against the curvature of L(T)); outside the table both directions fall back to quadrature and a bracketed Newton's method.
+ * cubic Hermite polynomials; the inverse finds the table interval through an index of equal steps in ln L (the
+ * column is monotone) and solves the interval's cubic by Newton's method. The interpolation error is about 1e-11
+ * relative in L and 1e-9 K in T (the step is small against the curvature of L(T)); outside the table both
+ * directions fall back to quadrature and a bracketed Newton's method.
  *
  * <p>Instances are immutable and thread-safe; {@link #of(double[])} caches one per band.
  */

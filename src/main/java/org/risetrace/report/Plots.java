@@ -59,6 +59,15 @@ final class Plots {
     private static final Font TICK_FONT = new Font(Font.SANS_SERIF, Font.PLAIN, 12);
     private static final Font LABEL_FONT = new Font(Font.SANS_SERIF, Font.BOLD, 13);
     private static final Color GRID = new Color(0xdddddd);
+    /** Where a map has no value: grey hatching, which no colour of a map can be mistaken for. */
+    private static final java.awt.Paint NO_VALUE = hatch();
+
+    private static java.awt.Paint hatch() {
+        java.awt.image.BufferedImage tile = new java.awt.image.BufferedImage(8, 8, java.awt.image.BufferedImage.TYPE_INT_RGB);
+        for (int y = 0; y < 8; y++)
+            for (int x = 0; x < 8; x++) tile.setRGB(x, y, ((x + y) % 8 < 2) ? 0xa8a8a8 : 0xe4e4e4);
+        return new java.awt.TexturePaint(tile, new Rectangle2D.Double(0, 0, 8, 8));
+    }
 
     private Plots() { }
 
@@ -135,7 +144,7 @@ final class Plots {
         renderer.setPaintScale(scale);
 
         XYPlot plot = new XYPlot(data, xAxis, yAxis, renderer);
-        plot.setBackgroundPaint(new Color(0xd8d8d8));
+        plot.setBackgroundPaint(NO_VALUE);
         plot.setDomainGridlinesVisible(false);
         plot.setRangeGridlinesVisible(false);
         plot.setAxisOffset(RectangleInsets.ZERO_INSETS);

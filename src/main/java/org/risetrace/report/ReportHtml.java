@@ -180,7 +180,7 @@ public final class ReportHtml {
             figure(h, Plots.mapPng(g, new Plots.Shading(ColourMaps.EMBER, range[0], range[1], false,
                             "apparent temperature (\u00b0C)"), parts, null),
                     "Last frame", "The last usable frame, rectified onto the board, in apparent temperature ("
-                            + ColourMaps.EMBER.word() + " colour map: darker is cooler). Grey: outside the frame.");
+                            + ColourMaps.EMBER.word() + " colour map: darker is cooler). Hatched: outside the frame.");
         }
         BoardMap rise = a.riseMap();
         if (rise != null && hasFinite(rise.values())) {
@@ -202,7 +202,7 @@ public final class ReportHtml {
                             true, "onset after injection start (s)"), parts, null),
                     "Onset map", "When each point first rose above the noise threshold (" + ColourMaps.TIDE.word()
                             + " colour map, earliest lightest). The earliest region points at the source even after "
-                            + "the heat has spread. Grey: never rose.");
+                            + "the heat has spread. Hatched: never rose.");
         } else if (onset != null) {
             h.append("<p class=\"blank\">Onset map: no point rose above the noise threshold.</p>\n");
         }

@@ -15,12 +15,14 @@ import java.util.Locale;
 
 /**
  * Finds calibration profiles. A reference that ends in {@code .json} or contains a path separator is a file
- * (relative to the series folder when one is given); otherwise it is a name, looked up in {@code ./calibration/}
- * and then among the profiles bundled in the jar.
+ * (relative to {@code baseDir}, the series folder, when one is given; else to the working directory); otherwise
+ * it is a name, looked up as {@code ./calibration/NAME.json} in the working directory and then among the
+ * profiles bundled in the jar.
  */
 public final class Profiles {
     /** Names of the profiles bundled with the tool (the files in the repository's calibration/ folder). */
-    public static final List<String> BUNDLED = List.of("u16-centikelvin", "u16-decikelvin", "f32-celsius", "u8-span");
+    public static final List<String> BUNDLED = List.of("u16-centikelvin", "u16-decikelvin", "f32-celsius", "f32-kelvin",
+            "u8-span", "matrix-celsius");
 
     private static final ObjectMapper JSON = new ObjectMapper()
             .enable(DeserializationFeature.FAIL_ON_UNKNOWN_PROPERTIES);
@@ -52,12 +54,27 @@ public final class Profiles {
         try (InputStream in = Profiles.class.getResourceAsStream("/calibration/" + reference + ".json")) {
             if (in == null)
                 throw new InputRejected(null, "unknown calibration profile '" + reference + "'",
-                        "known profiles: " + String.join(", ", BUNDLED));
+                        "known profiles: " + String.join(", ", known()));
             Path pseudo = Path.of("calibration", reference + ".json");
             return validate(parse(in, pseudo), pseudo);
         } catch (IOException e) {
             throw new InputRejected(null, "cannot read bundled profile " + reference + ": " + e.getMessage());
         }
+    }
+
+    /** Bundled profile names plus those in ./calibration/ of the working directory. */
+    public static List<String> known() {
+        java.util.TreeSet<String> names = new java.util.TreeSet<>(BUNDLED);
+        Path local = Path.of("calibration");
+        if (Files.isDirectory(local)) {
+            try (java.util.stream.Stream<Path> s = Files.list(local)) {
+                s.map(p -> p.getFileName().toString()).filter(n -> n.endsWith(".json"))
+                        .forEach(n -> names.add(n.substring(0, n.length() - 5)));
+            } catch (IOException ignored) {
+                // the bundled names are still right
+            }
+        }
+        return List.copyOf(names);
     }
 
     private static Profile parse(InputStream in, Path file) throws IOException {

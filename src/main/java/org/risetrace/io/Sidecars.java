@@ -1,0 +1,84 @@
+package org.risetrace.io;
+
+import com.fasterxml.jackson.core.JsonLocation;
+import com.fasterxml.jackson.core.JsonProcessingException;
+import com.fasterxml.jackson.databind.DeserializationFeature;
+import com.fasterxml.jackson.databind.ObjectMapper;
+import com.fasterxml.jackson.databind.exc.UnrecognizedPropertyException;
+import org.risetrace.frame.InputRejected;
+
+import java.io.IOException;
+import java.nio.file.Files;
+import java.nio.file.NoSuchFileException;
+import java.nio.file.Path;
+import java.util.Map;
+
+/** Reads and checks {@code series.json}; every problem names the file and, for JSON errors, line and column. */
+public final class Sidecars {
+    /** The sidecar's file name in a series folder. */
+    public static final String FILE_NAME = "series.json";
+
+    private static final ObjectMapper JSON = new ObjectMapper()
+            .enable(DeserializationFeature.FAIL_ON_UNKNOWN_PROPERTIES)
+            .enable(DeserializationFeature.FAIL_ON_TRAILING_TOKENS)
+            .enable(DeserializationFeature.FAIL_ON_NULL_FOR_PRIMITIVES);
+
+    private Sidecars() {
+    }
+
+    public static Sidecar load(Path file) {
+        Sidecar s;
+        try {
+            s = JSON.readValue(Files.readAllBytes(file), Sidecar.class);
+        } catch (NoSuchFileException e) {
+            throw new InputRejected(file, "sidecar file not found");
+        } catch (UnrecognizedPropertyException e) {
+            throw new InputRejected(file, "unknown field '" + e.getPropertyName() + "'" + at(e.getLocation()),
+                    "known fields: " + e.getKnownPropertyIds());
+        } catch (JsonProcessingException e) {
+            throw new InputRejected(file, "malformed JSON" + at(e.getLocation()) + ": " + e.getOriginalMessage());
+        } catch (IOException e) {
+            throw new InputRejected(file, "cannot read: " + e.getMessage(), null, e);
+        }
+        if (s == null) throw new InputRejected(file, "the sidecar is empty (null)", "write a JSON object {...}");
+        return validate(s, file);
+    }
+
+    private static String at(JsonLocation loc) {
+        return loc == null ? "" : " at line " + loc.getLineNr() + ", column " + loc.getColumnNr();
+    }
+
+    static Sidecar validate(Sidecar s, Path file) {
+        if (s.frameIntervalS() != null && !(s.frameIntervalS() > 0 && Double.isFinite(s.frameIntervalS())))
+            throw new InputRejected(file, "field 'frame_interval_s' must be a positive number of seconds");
+        checkSpan(s.spanC(), file, "span_c");
+        if (s.reflectedC() != null && !(s.reflectedC() >= SampleMapping.ABSOLUTE_ZERO_C
+                && s.reflectedC() <= SampleMapping.MAX_CELSIUS))
+            throw new InputRejected(file, "field 'reflected_c' must be a temperature in degrees Celsius");
+        if (s.frames() != null) {
+            for (Map.Entry<String, Sidecar.FrameEntry> e : s.frames().entrySet()) {
+                Sidecar.FrameEntry f = e.getValue();
+                if (f == null) throw new InputRejected(file, "frames['" + e.getKey() + "'] is null");
+                if (f.tS() != null && !Double.isFinite(f.tS()))
+                    throw new InputRejected(file, "frames['" + e.getKey() + "'].t_s must be a number of seconds");
+                checkSpan(f.spanC(), file, "frames['" + e.getKey() + "'].span_c");
+            }
+        }
+        Sidecar.Injection inj = s.injection();
+        if (inj != null) {
+            if (inj.startS() != null && !Double.isFinite(inj.startS()))
+                throw new InputRejected(file, "field 'injection.start_s' must be a number of seconds");
+            if (inj.volts() != null && !(inj.volts() >= 0 && Double.isFinite(inj.volts())))
+                throw new InputRejected(file, "field 'injection.volts' must be a non-negative number");
+            if (inj.currentLimitA() != null && !(inj.currentLimitA() > 0 && Double.isFinite(inj.currentLimitA())))
+                throw new InputRejected(file, "field 'injection.current_limit_a' must be a positive number of amperes");
+        }
+        return s;
+    }
+
+    private static void checkSpan(double[] span, Path file, String field) {
+        if (span == null) return;
+        if (span.length != 2 || !(span[1] > span[0]) || !Double.isFinite(span[0]) || !Double.isFinite(span[1]))
+            throw new InputRejected(file, "field '" + field + "' must be [low, high] degrees Celsius with high > low");
+    }
+}

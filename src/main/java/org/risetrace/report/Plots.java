@@ -238,7 +238,7 @@ final class Plots {
             RiseCurve c = curves.get(k);
             Color colour = LINE_COLOURS[k % LINE_COLOURS.length];
             XYSeries measured = new XYSeries(c.ref() == null ? "part " + (k + 1) : c.ref(), false, true);
-            int n = Math.min(c.tS().length, c.riseK().length);
+            int n = c.tS() == null || c.riseK() == null ? 0 : Math.min(c.tS().length, c.riseK().length);
             for (int i = 0; i < n; i++)
                 if (Double.isFinite(c.tS()[i]) && Double.isFinite(c.riseK()[i])) measured.add(c.tS()[i], c.riseK()[i]);
             data.addSeries(measured);

@@ -210,6 +210,7 @@ public final class ReportHtml {
 
         // curves
         List<RiseCurve> curves = PartsCsv.inRankOrder(a.curves(), ranked);
+        curves.removeIf(c -> c == null || c.tS() == null || c.riseK() == null);
         List<RiseCurve> shown = curves.subList(0, Math.min(CURVES_SHOWN, curves.size()));
         boolean anyCurve = shown.stream().anyMatch(c -> c.tS() != null && c.tS().length >= 2);
         if (!comparison && anyCurve) {

@@ -278,8 +278,15 @@ final class Plots {
                     BasicStroke.JOIN_ROUND, 1f, new float[]{3f, 3f}, 0f));
             m.setLabel("injection on");
             m.setLabelFont(TICK_FONT);
-            m.setLabelAnchor(org.jfree.chart.ui.RectangleAnchor.TOP_RIGHT);
-            m.setLabelTextAnchor(TextAnchor.TOP_LEFT);
+            double tMax = curves.stream().filter(c -> c.tS() != null).flatMapToDouble(c -> Arrays.stream(c.tS()))
+                    .filter(Double::isFinite).max().orElse(injectionStartS);
+            double tMin = curves.stream().filter(c -> c.tS() != null).flatMapToDouble(c -> Arrays.stream(c.tS()))
+                    .filter(Double::isFinite).min().orElse(injectionStartS);
+            boolean labelLeft = injectionStartS > (tMin + tMax) / 2;  // keep the label inside the plot
+            m.setLabelAnchor(labelLeft ? org.jfree.chart.ui.RectangleAnchor.TOP_LEFT
+                    : org.jfree.chart.ui.RectangleAnchor.TOP_RIGHT);
+            m.setLabelTextAnchor(labelLeft ? TextAnchor.TOP_RIGHT : TextAnchor.TOP_LEFT);
+            m.setLabelBackgroundColor(new Color(255, 255, 255, 0));
             plot.addDomainMarker(m);
         }
         JFreeChart chart = new JFreeChart(null, JFreeChart.DEFAULT_TITLE_FONT, plot, true);
@@ -291,11 +298,12 @@ final class Plots {
     static byte[] registrationPng(List<FrameRecord> frames) {
         XYSeries ok = new XYSeries("ok / marked", true, true);
         XYSeries weak = new XYSeries("weak", true, true);
-        XYSeries failed = new XYSeries("failed (left out, drawn at 0)", true, true);
+        XYSeries failed = new XYSeries("failed (left out; at 0 when not measured)", true, true);
         XYSeriesCollection data = new XYSeriesCollection();
         for (FrameRecord f : frames) {
             if (f.registration() != null && "failed".equals(f.registration().status()) && Double.isFinite(f.tS())) {
-                failed.add(f.tS(), 0.0);
+                Double r = f.registration().rmsPx();
+                failed.add(f.tS(), r != null && Double.isFinite(r) ? r : 0.0);
                 continue;
             }
             if (f.registration() == null || f.registration().rmsPx() == null) continue;

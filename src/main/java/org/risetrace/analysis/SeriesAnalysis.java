@@ -1,0 +1,250 @@
+package org.risetrace.analysis;
+
+import org.risetrace.board.Board;
+import org.risetrace.board.Part;
+import org.risetrace.io.Sidecar;
+import org.risetrace.registration.BoardRaster;
+import org.risetrace.registration.FrameRegistration;
+import org.risetrace.registration.RegistrationStatus;
+
+import java.time.Instant;
+import java.util.ArrayList;
+import java.util.Arrays;
+import java.util.Comparator;
+import java.util.List;
+
+/**
+ * The in-order half of the analysis: takes one {@link FrameSample} after another in time order, keeps only small
+ * per-frame numbers (each part's footprint statistics, the ambient) and the per-pixel accumulators of
+ * {@link RiseMaps}, and at the end measures every part's curve, finds hot spots and decides the verdict. Never holds
+ * the series' rasters (only the last one, for the report).
+ */
+public final class SeriesAnalysis {
+
+    /** Where the inputs came from, for analysis.json. */
+    public record Context(String series, String boardFile, String profile, Sidecar.Injection injection,
+                          Double reflectedC, String version, String ambientSource) {
+    }
+
+    private final Board board;
+    private final List<Part> parts;
+    private final AnalysisOptions options;
+    private final BaselinePlan plan;
+    private final Context context;
+    private final EmissivityModel emissivity;
+    private final List<FrameRecord> records = new ArrayList<>();
+    private final List<double[]> stats = new ArrayList<>();
+    private final List<Double> times = new ArrayList<>(), ambient = new ArrayList<>();
+    private final List<Boolean> weak = new ArrayList<>();
+    private int baselineUsed;
+    private RiseMaps maps;
+    private FootprintSampler footprints;
+    private BoardRaster lastRaster;
+    private double framePxPerMm = Double.NaN;
+    private double lastT = Double.NEGATIVE_INFINITY;
+    private double windowUsedS = Double.NaN;
+
+
+    public SeriesAnalysis(Board board, AnalysisOptions options, BaselinePlan plan, EmissivityModel emissivity,
+                          Context context) {
+        this.board = board;
+        this.parts = board.partsOrEmpty();
+        this.options = options;
+        this.plan = plan;
+        this.emissivity = emissivity;
+        this.context = context;
+    }
+
+    public BaselinePlan plan() { return plan; }
+
+    /** Adds the next frame; frames must come in increasing index (time) order. */
+    public void add(FrameSample s) {
+        FrameRegistration r = s.registration();
+        records.add(new FrameRecord(s.file(), s.tS(), s.sha256(), s.used(), r == null ? null
+                : new FrameRecord.Registration(r.status().word(), Double.isFinite(r.rmsPx()) ? r.rmsPx() : null,
+                r.reason(), r.boardCornersPx())));
+        if (!s.used()) return;
+        if (s.tS() <= lastT) throw new IllegalStateException("frames out of order at " + s.file());
+        lastT = s.tS();
+        BoardRaster raster = s.raster();
+        if (maps == null) {
+            maps = new RiseMaps(raster.width(), raster.height(), raster.pxPerMm(), options.kSigma(),
+                    options.onsetFrames(), plan.tStartS());
+            footprints = new FootprintSampler(parts, raster.width(), raster.height(), raster.pxPerMm());
+            if (r.boardToFrame() != null) framePxPerMm = framePxPerMm(r, board);
+        }
+        // the first used frame is the baseline when every planned baseline frame failed
+        boolean base = plan.baseline()[s.index()] || (baselineUsed == 0 && times.isEmpty());
+        if (base && baselineUsed < times.size())
+            base = false; // a baseline frame after a non-baseline one cannot happen with a time-ordered plan
+        if (base) baselineUsed++;
+        maps.add(raster.celsius(), raster.valid(), s.tS(), s.ambientC(), base, plan.last()[s.index()]);
+        times.add(s.tS());
+        stats.add(s.stats());
+        ambient.add(s.ambientC());
+        weak.add(r.status() == RegistrationStatus.WEAK);
+        lastRaster = raster;
+    }
+
+    /** Frame pixels per board millimetre at the board centre (square root of the homography's Jacobian determinant). */
+    static double framePxPerMm(FrameRegistration r, Board board) {
+        double cx = board.widthMm() / 2, cy = board.heightMm() / 2, d = 0.5;
+        double[] a = r.boardToFrame().apply(cx - d, cy), b = r.boardToFrame().apply(cx + d, cy);
+        double[] c = r.boardToFrame().apply(cx, cy - d), e = r.boardToFrame().apply(cx, cy + d);
+        double jxx = (b[0] - a[0]) / (2 * d), jyx = (b[1] - a[1]) / (2 * d);
+        double jxy = (e[0] - c[0]) / (2 * d), jyy = (e[1] - c[1]) / (2 * d);
+        return Math.sqrt(Math.abs(jxx * jyy - jxy * jyx));
+    }
+
+    /** Half-rise time of the most-risen part with an onset, as a window length; rateWindowS when none. */
+    static double rateWindow(double[] t, PartCurve[] curves, AnalysisOptions o, double tStartS) {
+        PartCurve best = null;
+        for (PartCurve c : curves)
+            if (c.onsetS() != null && Double.isFinite(c.endRiseK()) && (best == null || c.endRiseK() > best.endRiseK())) best = c;
+        if (best == null || !(best.endRiseK() > 0)) return o.rateWindowS();
+        double tHalf = Double.NaN;
+        for (int i = 0; i < t.length; i++)
+            if (t[i] >= best.onsetS() && best.riseK()[i] >= 0.5 * best.endRiseK()) {
+                tHalf = t[i];
+                break;
+            }
+        return Double.isFinite(tHalf) ? Math.min(o.rateWindowS(), Math.max(tHalf - tStartS, 0)) : o.rateWindowS();
+    }
+
+    /** Measures, ranks and decides. */
+    public Analysis finish() {
+        records.sort(Comparator.comparingDouble(FrameRecord::tS));
+        int n = times.size(), np = parts.size();
+        if (n == 0) {
+            Verdict v = new Verdict(VerdictStatus.INCONCLUSIVE, null, null, null, null,
+                    "no frame could be mapped onto the board: check the board outline and the frames");
+            return new Analysis(result(v, List.of(), List.of()), board, List.of(), null, null, null);
+        }
+        double[] t = new double[n], amb = new double[n];
+        for (int i = 0; i < n; i++) {
+            t[i] = times.get(i);
+            amb[i] = ambient.get(i);
+        }
+        int weakCount = 0;
+        for (boolean w : weak) if (w) weakCount++;
+        double ambBase = PartCurve.meanFinite(amb, 0, Math.max(1, baselineUsed));
+
+        // rise map and hot spots
+        double sigmaBoardPx = Double.isFinite(framePxPerMm) && framePxPerMm > 0
+                ? options.blurPx() * maps.pxPerMm() / framePxPerMm : options.blurPx();
+        Hotspots.Smoothed sm = Hotspots.smoothed(maps.riseMap(), maps.width(), maps.height(), maps.pxPerMm(),
+                sigmaBoardPx, "K");
+        double minSepPx = Math.max(2.0, 1.0 * maps.pxPerMm());
+        List<Hotspot> hotspots = Hotspots.find(sm, options.hotspotKSigma(), minSepPx, options.maxHotspots(), parts);
+
+        // per part: object temperatures, weights, how far registration and resampling alone can move each reading
+        float[] baseMean = maps.baselineMean();
+        EmissivityModel.Emissivity[] eps = new EmissivityModel.Emissivity[np];
+        double[][] ys = new double[np][], ws = new double[np][];
+        double[] meanValid = new double[np], positionErrorK = new double[np];
+        for (int p = 0; p < np; p++) {
+            Part part = parts.get(p);
+            eps[p] = emissivity.forMaterial(part.material());
+            double[] y = new double[n], w = new double[n];
+            double validSum = 0;
+            double reflected = context.reflectedC() != null ? context.reflectedC() : ambBase;
+            for (int i = 0; i < n; i++) {
+                double[] s = stats.get(i);
+                double app = s[p * FootprintSampler.STATS + FootprintSampler.P95];
+                double valid = s[p * FootprintSampler.STATS + FootprintSampler.VALID];
+                validSum += valid;
+                double refl = Double.isFinite(reflected) ? reflected : app;
+                y[i] = Double.isFinite(app) ? emissivity.objectCelsius(app, eps[p].value(), refl) : Double.NaN;
+                // weakly registered frames and partly visible footprints count less in the rate fit
+                w[i] = valid * (weak.get(i) ? 0.5 : 1.0);
+            }
+            ys[p] = y;
+            ws[p] = w;
+            meanValid[p] = validSum / n;
+            positionErrorK[p] = footprints.halfPixelSensitivity(baseMean, p) / eps[p].value();
+        }
+        // the rate window: up to the time the most-risen part reached half its end rise (a first-order curve is
+        // still nearly straight there, at 0.69 tau), at most rateWindowS
+        PartCurve[] curves = new PartCurve[np];
+        for (int p = 0; p < np; p++)
+            curves[p] = PartCurve.measure(t, ys[p], amb, ws[p], baselineUsed, plan.tStartS(), options.rateWindowS(),
+                    positionErrorK[p], options);
+        double windowS = rateWindow(t, curves, options, plan.tStartS());
+        if (windowS < options.rateWindowS())
+            for (int p = 0; p < np; p++)
+                curves[p] = PartCurve.measure(t, ys[p], amb, ws[p], baselineUsed, plan.tStartS(), windowS,
+                        positionErrorK[p], options);
+        this.windowUsedS = windowS;
+
+        List<Verdicts.Candidate> candidates = new ArrayList<>();
+        double[] rateSe = new double[np];
+        for (int p = 0; p < np; p++) {
+            Part part = parts.get(p);
+            LineFit rate = curves[p].rate();
+            // the rise in object temperature scales about as 1/e, so the rate's relative error grows by de/e
+            rateSe[p] = rate == null ? Double.NaN
+                    : Math.hypot(rate.slopeSe(), rate.slope() * eps[p].uncertainty() / eps[p].value());
+            float peak = Float.NaN;
+            for (int k : footprints.indices(p)) {
+                float v = sm.map().values()[k];
+                if (!Float.isNaN(v) && (Float.isNaN(peak) || v > peak)) peak = v;
+            }
+            candidates.add(new Verdicts.Candidate(part.ref(), rate == null ? null : rate.slope(),
+                    rate == null ? null : rateSe[p], curves[p].onsetS() != null, peak));
+        }
+        Integer[] order = new Integer[np];
+        for (int p = 0; p < np; p++) order[p] = p;
+        Arrays.sort(order, Comparator.comparingDouble((Integer p) -> {
+            Double r = candidates.get(p).rateKPerS();
+            return r == null || r.isNaN() ? Double.POSITIVE_INFINITY : -r;
+        }));
+        List<Verdicts.Candidate> ranked = new ArrayList<>();
+        for (Integer p : order) ranked.add(candidates.get(p));
+        Verdict verdict = Verdicts.decide(ranked, hotspots, sm.sigma(), weakCount, n, options);
+
+        List<PartResult> results = new ArrayList<>();
+        List<RiseCurve> riseCurves = new ArrayList<>();
+        for (int rank = 0; rank < np; rank++) {
+            int p = order[rank];
+            Part part = parts.get(p);
+            PartCurve c = curves[p];
+            LineFit rate = c.rate();
+            FirstOrderFit fit = c.fit();
+            List<String> warnings = new ArrayList<>();
+            if (eps[p].value() < 0.5)
+                warnings.add("emissivity " + eps[p].value() + " (" + part.material()
+                        + "): reading unreliable: cover with high-emissivity tape and capture again");
+            if (meanValid[p] < 0.9)
+                warnings.add(String.format(java.util.Locale.ROOT,
+                        "partly outside the frame: on average %.0f %% of the footprint was visible", 100 * meanValid[p]));
+            if (!(c.noiseK() > 0)) warnings.add("noise could not be measured (too few frames)");
+            results.add(new PartResult(part.ref(), rank + 1, rate == null ? null : rate.slope(),
+                    rate == null ? null : rateSe[p], finite(c.endRiseK()), c.onsetS(),
+                    fit == null ? null : fit.tauS(), fit == null ? null : fit.tauSe(),
+                    fit == null ? null : fit.dtInfK(), fit == null ? null : fit.dtInfSe(),
+                    fit == null ? null : fit.rmsK(), finite(c.noiseK()), meanValid[p], eps[p].value(), warnings));
+            riseCurves.add(new RiseCurve(part.ref(), t.clone(), c.riseK(), fit == null ? null : fit.t0S(),
+                    fit == null ? null : fit.tauS(), fit == null ? null : fit.dtInfK()));
+        }
+        return new Analysis(result(verdict, results, hotspots), board, riseCurves, sm.map(), maps.onsetMap(), lastRaster);
+    }
+
+    private AnalysisResult result(Verdict v, List<PartResult> parts, List<Hotspot> hotspots) {
+        java.util.Map<String, Object> params = options.asMap();
+        params.put("baseline_rule", plan.rule());
+        params.put("t_start_s", plan.tStartS());
+        params.put("baseline_frames_used", baselineUsed);
+        params.put("ambient_source", context.ambientSource());
+        if (maps != null) params.put("board_px_per_mm", maps.pxPerMm());
+        params.put("rate_window_used_s", finite(windowUsedS));
+        params.put("position_error", "half-pixel resampling sensitivity of each footprint on the baseline");
+        if (maps != null) params.put("pixel_noise_k", finite(maps.pixelSigma()));
+        return new AnalysisResult(AnalysisResult.SCHEMA, "risetrace", context.version(), Instant.now().toString(),
+                context.series(), context.boardFile(), context.profile(), params, context.injection(), v, parts,
+                hotspots, List.copyOf(records));
+    }
+
+    private static Double finite(double v) {
+        return Double.isFinite(v) ? v : null;
+    }
+}

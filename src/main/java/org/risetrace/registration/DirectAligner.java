@@ -1,0 +1,186 @@
+package org.risetrace.registration;
+
+/**
+ * Inverse-compositional Gauss-Newton alignment of a frame's band-passed pyramid to the reference template
+ * (Baker and Matthews, "Lucas-Kanade 20 Years On", IJCV 2004), coarse to fine, with an 8-parameter homography
+ * (6-parameter affine on the top level of a deep pyramid), a global gain and offset per iteration, and Huber
+ * weights (scale from the median absolute residual) so heating parts do not pull the fit. One instance per thread.
+ */
+final class DirectAligner {
+    private float[] warped = new float[0], err = new float[0], abs = new float[0];
+    /** True when the last level's final step moved no corner of the image by more than the tolerance. */
+    boolean converged;
+    int iterations;
+
+    /**
+     * Refines startFull (reference to frame, full-resolution pixels) from level fromLevel down to level 0.
+     * Returns null when the frame falls away (too few template pixels land inside the frame).
+     */
+    Homography align(ReferenceModel ref, Pyramid frame, Homography startFull, int fromLevel) {
+        Homography h = startFull;
+        converged = false;
+        iterations = 0;
+        for (int l = fromLevel; l >= 0; l--) {
+            ReferenceModel.Level lv = ref.level[l];
+            if (lv.n < 16) continue;
+            ensure(lv.n);
+            int params = (l == ref.levels - 1 && l >= 2) ? 6 : 8;
+            double[] hl = Pyramid.toLevel(h, l);
+            int maxIter = l == 0 ? 15 : 25;
+            double tol = l == 0 ? 0.02 : 0.05;
+            boolean settled = false;
+            for (int it = 0; it < maxIter; it++) {
+                iterations++;
+                double[] dp = step(lv, frame.bandPass[l], frame.widths[l], frame.heights[l], hl, params);
+                if (dp == null) return null;
+                double[] dh = incrementInPixels(dp, lv);
+                double[] inv = invert(dh);
+                if (inv == null) return null;
+                hl = multiply(hl, inv);
+                if (!finite(hl)) return null;
+                if (maxCornerShift(dh, lv.w, lv.h) < tol) { settled = true; break; }
+            }
+            h = Pyramid.toFull(hl, l).normalized();
+            if (l == 0) converged = settled;
+        }
+        return h;
+    }
+
+    private void ensure(int n) {
+        if (warped.length < n) { warped = new float[n]; err = new float[n]; abs = new float[n]; }
+    }
+
+    /** One Gauss-Newton step: the parameter increment (8 values, the last two 0 for affine) or null. */
+    private double[] step(ReferenceModel.Level lv, float[] img, int w, int h, double[] H, int params) {
+        int n = lv.n, valid = 0;
+        double st = 0, st2 = 0, si = 0, si2 = 0;
+        for (int i = 0; i < n; i++) {
+            double x = lv.x[i], y = lv.y[i];
+            double z = H[6] * x + H[7] * y + H[8];
+            double u = (H[0] * x + H[1] * y + H[2]) / z, v = (H[3] * x + H[4] * y + H[5]) / z;
+            float f = Filters.bilinear(img, w, h, u, v);
+            warped[i] = f;
+            if (f == f) {
+                valid++;
+                st += lv.t[i]; st2 += lv.t[i] * lv.t[i]; si += f; si2 += f * f;
+            }
+        }
+        if (valid < Math.max(16, n / 4)) return null;
+        double mt = st / valid, mi = si / valid;
+        double sdT = Math.sqrt(Math.max(0, st2 / valid - mt * mt)), sdI = Math.sqrt(Math.max(0, si2 / valid - mi * mi));
+        if (sdI < 1e-12 || sdT < 1e-12) return null;
+        double gain = Math.max(0.5, Math.min(2.0, sdT / sdI)), offset = mt - gain * mi;
+        int m = 0;
+        for (int i = 0; i < n; i++) {
+            float f = warped[i];
+            if (f != f) continue;
+            float e = (float) (gain * f + offset - lv.t[i]);
+            err[i] = e;
+            abs[m++] = Math.abs(e);
+        }
+        double sigma = 1.4826 * select(abs, m, m / 2);
+        double k = 1.345 * Math.max(sigma, 1e-9);
+        double[] a = new double[64], g = new double[8];
+        float[] sd = lv.sd;
+        for (int i = 0; i < n; i++) {
+            if (warped[i] != warped[i]) continue;
+            double e = err[i], ae = Math.abs(e);
+            double wt = ae <= k ? 1.0 : k / ae;
+            int o = 8 * i;
+            for (int r = 0; r < params; r++) {
+                double sr = sd[o + r] * wt;
+                g[r] += sr * e;
+                for (int c = r; c < params; c++) a[r * 8 + c] += sr * sd[o + c];
+            }
+        }
+        for (int r = 0; r < params; r++) for (int c = 0; c < r; c++) a[r * 8 + c] = a[c * 8 + r];
+        return solve(a, g, params);
+    }
+
+    /** The increment warp, defined in the level's normalised coordinates, as a pixel homography N^-1 dH N. */
+    private static double[] incrementInPixels(double[] p, ReferenceModel.Level lv) {
+        double[] dn = {1 + p[0], p[2], p[4], p[1], 1 + p[3], p[5], p[6], p[7], 1};
+        double sc = lv.sc, cx = lv.cx, cy = lv.cy;
+        double[] nInv = {sc, 0, cx, 0, sc, cy, 0, 0, 1};
+        double[] n = {1 / sc, 0, -cx / sc, 0, 1 / sc, -cy / sc, 0, 0, 1};
+        return multiply(multiply(nInv, dn), n);
+    }
+
+    static double[] multiply(double[] a, double[] b) {
+        double[] c = new double[9];
+        for (int r = 0; r < 3; r++)
+            for (int col = 0; col < 3; col++)
+                c[r * 3 + col] = a[r * 3] * b[col] + a[r * 3 + 1] * b[3 + col] + a[r * 3 + 2] * b[6 + col];
+        return c;
+    }
+
+    static double[] invert(double[] h) {
+        try {
+            return new Homography(h).inverse().values();
+        } catch (ArithmeticException e) {
+            return null;
+        }
+    }
+
+    private static boolean finite(double[] h) {
+        for (double v : h) if (!Double.isFinite(v)) return false;
+        return true;
+    }
+
+    private static double maxCornerShift(double[] h, int w, int hh) {
+        double worst = 0;
+        double[][] c = {{0, 0}, {w - 1, 0}, {w - 1, hh - 1}, {0, hh - 1}};
+        for (double[] p : c) {
+            double z = h[6] * p[0] + h[7] * p[1] + h[8];
+            double u = (h[0] * p[0] + h[1] * p[1] + h[2]) / z, v = (h[3] * p[0] + h[4] * p[1] + h[5]) / z;
+            worst = Math.max(worst, Math.hypot(u - p[0], v - p[1]));
+        }
+        return worst;
+    }
+
+    /** Solves the leading n x n block of a (row stride 8) against g; null when singular. */
+    private static double[] solve(double[] a, double[] g, int n) {
+        double[][] m = new double[n][n + 1];
+        for (int r = 0; r < n; r++) {
+            for (int c = 0; c < n; c++) m[r][c] = a[r * 8 + c];
+            m[r][n] = g[r];
+        }
+        for (int c = 0; c < n; c++) {
+            int p = c;
+            for (int r = c + 1; r < n; r++) if (Math.abs(m[r][c]) > Math.abs(m[p][c])) p = r;
+            if (Math.abs(m[p][c]) < 1e-300) return null;
+            double[] t = m[c]; m[c] = m[p]; m[p] = t;
+            for (int r = c + 1; r < n; r++) {
+                double f = m[r][c] / m[c][c];
+                for (int k = c; k <= n; k++) m[r][k] -= f * m[c][k];
+            }
+        }
+        double[] x = new double[8];
+        for (int r = n - 1; r >= 0; r--) {
+            double s = m[r][n];
+            for (int k = r + 1; k < n; k++) s -= m[r][k] * x[k];
+            x[r] = s / m[r][r];
+        }
+        for (double v : x) if (!Double.isFinite(v)) return null;
+        return x;
+    }
+
+    /** k-th smallest of the first n values (Hoare's selection); reorders the array. */
+    static float select(float[] v, int n, int k) {
+        if (n == 0) return 0;
+        int lo = 0, hi = n - 1;
+        while (lo < hi) {
+            float pivot = v[(lo + hi) >>> 1];
+            int i = lo, j = hi;
+            while (i <= j) {
+                while (v[i] < pivot) i++;
+                while (v[j] > pivot) j--;
+                if (i <= j) { float t = v[i]; v[i] = v[j]; v[j] = t; i++; j--; }
+            }
+            if (k <= j) hi = j;
+            else if (k >= i) lo = i;
+            else break;
+        }
+        return v[k];
+    }
+}

@@ -1,0 +1,259 @@
+package org.risetrace.registration;
+
+import org.risetrace.board.Board;
+import org.risetrace.frame.Frame;
+
+import java.util.List;
+import java.util.Locale;
+import java.util.Map;
+
+/**
+ * Registration of frames to the prepared reference: start estimates from (1) this thread's last good mapping or
+ * the identity, (2) a coarse search on the top pyramid level, (3) BoofCV features with RANSAC, each refined by
+ * {@link DirectAligner} and graded by {@link #evaluate}; the first ok result wins, else the best one. Thread-safe:
+ * the reference model is immutable and every thread keeps its own pyramid, aligner, matcher and last estimate.
+ */
+final class DirectRegistrar implements Registrar {
+    private final ReferenceModel ref;
+    private final RegistrationConfig config;
+    private final ThreadLocal<Workspace> workspace;
+
+    private static final class Workspace {
+        final Pyramid pyramid = new Pyramid();
+        final DirectAligner aligner = new DirectAligner();
+        FeatureSet.Matcher matcher;
+        Homography previous;
+    }
+
+    /** Quality of one candidate mapping (reference to frame). */
+    record Grade(Homography refToFrame, RegistrationStatus status, String reason, double similarity, double rmsPx,
+                 int inliers) {
+        int rank() { return status == RegistrationStatus.OK ? 2 : status == RegistrationStatus.WEAK ? 1 : 0; }
+
+        boolean betterThan(Grade o) {
+            return o == null || rank() > o.rank() || (rank() == o.rank() && similarity > o.similarity);
+        }
+    }
+
+    DirectRegistrar(ReferenceModel ref, RegistrationConfig config) {
+        this.ref = ref;
+        this.config = config;
+        this.workspace = ThreadLocal.withInitial(Workspace::new);
+    }
+
+    @Override
+    public FrameRegistration register(Frame frame) {
+        String name = frame.fileName();
+        try {
+            Board board = ref.board;
+            Map<String, double[][]> marked = board.outline().frames();
+            if (marked != null && marked.containsKey(name))
+                return markedResult(frame, marked.get(name), "corners marked in the board file");
+            if (name.equals(ref.referenceName))
+                return markedResult(frame, board.outline().cornersPx(), "reference frame");
+            if (frame.width() != ref.width || frame.height() != ref.height)
+                return failed(frame, "frame is " + frame.width() + "x" + frame.height() + ", the reference frame "
+                        + ref.width + "x" + ref.height);
+            Workspace ws = workspace.get();
+            double mean = ws.pyramid.build(frame.celsius(), frame.width(), frame.height(), ref.levels);
+            if (Double.isNaN(mean)) return failed(frame, "frame holds no readings");
+            double texture = spread(ws.pyramid.bandPass[0]);
+            if (texture < 0.05 * ref.referenceBandStd)
+                return failed(frame, "frame is uniform: no texture to register");
+            Grade best = null;
+            int top = ref.levels - 1;
+            int fast = Math.min(2, top);
+            if (config.method().equals("auto")) {
+                Homography start = ws.previous != null ? ws.previous : Homography.identity();
+                best = attempt(ws, start, fast, best);
+                if (best != null && best.rank() == 2) return finish(frame, ws, best);
+            }
+            if (!config.method().equals("features")) {
+                List<CoarseSearch.Candidate> cands = CoarseSearch.search(ref, ws.pyramid, 2);
+                for (CoarseSearch.Candidate c : cands) {
+                    best = attempt(ws, c.refToFrame(), top, best);
+                    if (best != null && best.rank() == 2) return finish(frame, ws, best);
+                }
+            }
+            if (ref.features != null) {
+                if (ws.matcher == null) ws.matcher = new FeatureSet.Matcher(2.0);
+                int[] inl = new int[1];
+                Homography f = ws.matcher.match(ref.features, ws.pyramid.bandPass[0], ref.width, ref.height, inl);
+                if (f != null && plausibility(f) == null) best = attempt(ws, f, fast, best);
+            }
+            if (best == null) return failed(frame, "no mapping found: nothing in the frame matches the reference");
+            return finish(frame, ws, best);
+        } catch (RuntimeException e) {
+            return failed(frame, "registration error: " + e);
+        }
+    }
+
+    private Grade attempt(Workspace ws, Homography start, int fromLevel, Grade best) {
+        Homography h = ws.aligner.align(ref, ws.pyramid, start, fromLevel);
+        if (h == null) return best;
+        Grade g = evaluate(ws.pyramid, h, ws.aligner.converged);
+        return g.betterThan(best) ? g : best;
+    }
+
+    private FrameRegistration finish(Frame frame, Workspace ws, Grade g) {
+        if (g.status() == RegistrationStatus.FAILED)
+            return new FrameRegistration(frame.fileName(), frame.tSeconds(), RegistrationStatus.FAILED, g.reason(),
+                    null, null, g.inliers(), g.rmsPx(), g.similarity());
+        ws.previous = g.refToFrame();
+        Homography boardToFrame = g.refToFrame().compose(ref.boardToReference).normalized();
+        return new FrameRegistration(frame.fileName(), frame.tSeconds(), g.status(), g.reason(), boardToFrame,
+                Homographies.boardCorners(ref.board, boardToFrame), g.inliers(), g.rmsPx(), g.similarity());
+    }
+
+    private FrameRegistration markedResult(Frame frame, double[][] corners, String why) {
+        Homography h = Homographies.boardToFrame(ref.board, corners);
+        return new FrameRegistration(frame.fileName(), frame.tSeconds(), RegistrationStatus.MARKED, why, h,
+                Homographies.boardCorners(ref.board, h), 0, Double.NaN, Double.NaN);
+    }
+
+    private static FrameRegistration failed(Frame frame, String reason) {
+        return new FrameRegistration(frame.fileName(), frame.tSeconds(), RegistrationStatus.FAILED, reason, null, null,
+                0, Double.NaN, Double.NaN);
+    }
+
+    private static double spread(float[] v) {
+        double s = 0, s2 = 0;
+        for (float f : v) { s += f; s2 += f * f; }
+        double m = s / v.length;
+        return Math.sqrt(Math.max(0, s2 / v.length - m * m));
+    }
+
+    /** Null when the mapping of the board outline is plausible relative to the reference, else why not. */
+    String plausibility(Homography refToFrame) {
+        double[][] rc = ref.referenceCornersPx;
+        double[][] fc = new double[4][];
+        for (int i = 0; i < 4; i++) {
+            fc[i] = refToFrame.apply(rc[i][0], rc[i][1]);
+            if (!Double.isFinite(fc[i][0]) || !Double.isFinite(fc[i][1])) return "mapping sends a corner to infinity";
+            if (fc[i][0] < -0.5 * ref.width || fc[i][0] > 1.5 * ref.width
+                    || fc[i][1] < -0.5 * ref.height || fc[i][1] > 1.5 * ref.height)
+                return "mapping puts a board corner far outside the frame";
+        }
+        double areaRef = ReferenceModel.polygonArea(rc), areaNew = ReferenceModel.polygonArea(fc);
+        if (!(areaNew > 0)) return "mapping folds the board outline";
+        double zoom = Math.sqrt(areaNew / areaRef), maxZoom = config.maxScaleChange();
+        if (zoom > maxZoom || zoom < 1 / maxZoom)
+            return String.format(Locale.ROOT, "implausible zoom %.2f against the reference", zoom);
+        for (int i = 0; i < 4; i++) {
+            double lr = dist(rc[i], rc[(i + 1) % 4]), ln = dist(fc[i], fc[(i + 1) % 4]);
+            double ratio = ln / lr / zoom;
+            if (ratio > 1.3 || ratio < 1 / 1.3) return "implausible perspective: board edge stretched by "
+                    + String.format(Locale.ROOT, "%.2f", ratio);
+            double ar = angle(rc[(i + 3) % 4], rc[i], rc[(i + 1) % 4]), an = angle(fc[(i + 3) % 4], fc[i], fc[(i + 1) % 4]);
+            if (Math.abs(ar - an) > config.maxAngleChangeDeg())
+                return String.format(Locale.ROOT, "implausible shear: corner angle changed by %.1f deg", Math.abs(ar - an));
+            double cross = (fc[(i + 1) % 4][0] - fc[i][0]) * (fc[(i + 2) % 4][1] - fc[(i + 1) % 4][1])
+                    - (fc[(i + 1) % 4][1] - fc[i][1]) * (fc[(i + 2) % 4][0] - fc[(i + 1) % 4][0]);
+            if (cross <= 0) return "mapping makes the board outline non-convex";
+        }
+        return null;
+    }
+
+    private static double dist(double[] a, double[] b) { return Math.hypot(a[0] - b[0], a[1] - b[1]); }
+
+    private static double angle(double[] prev, double[] at, double[] next) {
+        double a1 = Math.atan2(prev[1] - at[1], prev[0] - at[0]), a2 = Math.atan2(next[1] - at[1], next[0] - at[0]);
+        double d = Math.toDegrees(a2 - a1);
+        while (d < 0) d += 360;
+        while (d >= 360) d -= 360;
+        return d;
+    }
+
+    /**
+     * Grades a mapping: plausibility of the outline, normalised cross-correlation of the band-passed images over
+     * the board, and a local check: each textured patch of the reference is re-aligned by translation alone
+     * (Lucas and Kanade 1981) in the frame mapped back through the homography; a patch agrees when its residual
+     * shift stays under 1 px. rms_px is the RMS residual shift of the agreeing patches, inliers their number.
+     */
+    Grade evaluate(Pyramid frame, Homography h, boolean converged) {
+        String implausible = plausibility(h);
+        if (implausible != null) return new Grade(h, RegistrationStatus.FAILED, implausible, Double.NaN, Double.NaN, 0);
+        float[] img = frame.bandPass[0];
+        int w = frame.widths[0], hh = frame.heights[0];
+        double[] m = h.values();
+        int n = ref.scoreX.length, valid = 0;
+        double sf = 0, sf2 = 0, sft = 0, st = 0, st2 = 0;
+        for (int i = 0; i < n; i++) {
+            double x = ref.scoreX[i], y = ref.scoreY[i];
+            double z = m[6] * x + m[7] * y + m[8];
+            float f = Filters.bilinear(img, w, hh, (m[0] * x + m[1] * y + m[2]) / z, (m[3] * x + m[4] * y + m[5]) / z);
+            if (f != f) continue;
+            float t = ref.scoreT[i];
+            valid++;
+            sf += f; sf2 += f * f; sft += f * t; st += t; st2 += t * t;
+        }
+        double visible = n == 0 ? 0 : valid / (double) n;
+        if (visible < config.minVisibleFraction())
+            return new Grade(h, RegistrationStatus.FAILED, String.format(Locale.ROOT,
+                    "only %.0f %% of the board inside the frame", 100 * visible), Double.NaN, Double.NaN, 0);
+        double vf = sf2 - sf * sf / valid, vt = st2 - st * st / valid;
+        double similarity = vf > 0 && vt > 0 ? (sft - sf * st / valid) / Math.sqrt(vf * vt) : 0;
+        double gain = vf > 0 ? Math.max(0.5, Math.min(2.0, Math.sqrt(vt / vf))) : 1;
+        double offset = (st - gain * sf) / valid;
+        // local patch check
+        int checked = 0, agree = 0;
+        double sum2 = 0;
+        for (ReferenceModel.Patch p : ref.patches) {
+            double[] d = patchShift(p, img, w, hh, m, gain, offset);
+            if (d == null) continue;
+            checked++;
+            double r = Math.hypot(d[0], d[1]);
+            if (d[2] > 0 && r <= 1.0) { agree++; sum2 += r * r; }
+        }
+        double rms = agree > 0 ? Math.sqrt(sum2 / agree) : Double.NaN;
+        double fraction = checked > 0 ? agree / (double) checked : 0;
+        StringBuilder weak = new StringBuilder();
+        String fail = null;
+        if (similarity < config.failSimilarity())
+            fail = String.format(Locale.ROOT, "image similarity %.2f over the board is below %.2f: the frame does not "
+                    + "match the reference", similarity, config.failSimilarity());
+        else if (checked >= 3 && fraction < config.failInlierFraction())
+            fail = String.format(Locale.ROOT, "only %d of %d check patches agree with the mapping", agree, checked);
+        else if (rms > config.failRmsPx())
+            fail = String.format(Locale.ROOT, "check patches disagree by %.2f px RMS", rms);
+        if (fail != null) return new Grade(h, RegistrationStatus.FAILED, fail, similarity, rms, agree);
+        if (similarity < config.okSimilarity())
+            weak.append(String.format(Locale.ROOT, "image similarity %.2f below %.2f; ", similarity, config.okSimilarity()));
+        if (checked < 3) weak.append("too few textured patches to check the mapping; ");
+        else if (fraction < config.okInlierFraction())
+            weak.append(String.format(Locale.ROOT, "%d of %d check patches agree; ", agree, checked));
+        if (rms > config.okRmsPx()) weak.append(String.format(Locale.ROOT, "check patches disagree by %.2f px RMS; ", rms));
+        if (visible < 0.9) weak.append(String.format(Locale.ROOT, "%.0f %% of the board inside the frame; ", 100 * visible));
+        if (!converged) weak.append("refinement did not settle; ");
+        if (weak.length() > 0) {
+            weak.setLength(weak.length() - 2);
+            return new Grade(h, RegistrationStatus.WEAK, weak.toString(), similarity, rms, agree);
+        }
+        return new Grade(h, RegistrationStatus.OK, null, similarity, rms, agree);
+    }
+
+    /** Residual translation {dx, dy, converged} of one patch, or null when the patch falls outside the frame. */
+    private static double[] patchShift(ReferenceModel.Patch p, float[] img, int w, int h, double[] m,
+                                       double gain, double offset) {
+        double dx = 0, dy = 0;
+        int n = p.t.length;
+        for (int it = 0; it < 10; it++) {
+            double bx = 0, by = 0;
+            for (int k = 0; k < n; k++) {
+                double x = p.cx + p.dx[k] + dx, y = p.cy + p.dy[k] + dy;
+                double z = m[6] * x + m[7] * y + m[8];
+                float f = Filters.bilinear(img, w, h, (m[0] * x + m[1] * y + m[2]) / z, (m[3] * x + m[4] * y + m[5]) / z);
+                if (f != f) return null;
+                double e = gain * f + offset - p.t[k];
+                bx += p.gx[k] * e;
+                by += p.gy[k] * e;
+            }
+            double sx = p.i11 * bx + p.i12 * by, sy = p.i12 * bx + p.i22 * by;
+            dx -= sx;
+            dy -= sy;
+            if (Math.hypot(dx, dy) > 3) return new double[]{dx, dy, 0};
+            if (Math.hypot(sx, sy) < 0.01) return new double[]{dx, dy, 1};
+        }
+        return new double[]{dx, dy, 0};
+    }
+}

@@ -1,0 +1,130 @@
+package org.risetrace.registration;
+
+/** Plain float[] image operations used by registration: smoothing, band-pass, decimation, bilinear sampling. */
+final class Filters {
+    private Filters() {
+    }
+
+    /** Copies the raster replacing NaN/infinite pixels by the mean of the finite ones; returns that mean. */
+    static double fillInvalid(float[] src, float[] dst) {
+        double sum = 0;
+        int n = 0;
+        for (float v : src) if (Float.isFinite(v)) { sum += v; n++; }
+        float mean = n == 0 ? 0f : (float) (sum / n);
+        for (int i = 0; i < src.length; i++) dst[i] = Float.isFinite(src[i]) ? src[i] : mean;
+        return n == 0 ? Double.NaN : mean;
+    }
+
+    /** Separable Gaussian blur, sigma 1 px, kernel radius 3, borders clamped. */
+    static void gaussian1(float[] src, float[] dst, float[] tmp, int w, int h) {
+        final float[] k = kernel(1.0, 3);
+        convolveRows(src, tmp, w, h, k);
+        convolveCols(tmp, dst, w, h, k);
+    }
+
+    private static float[] kernel(double sigma, int r) {
+        float[] k = new float[2 * r + 1];
+        double s = 0;
+        for (int i = -r; i <= r; i++) { k[i + r] = (float) Math.exp(-i * i / (2 * sigma * sigma)); s += k[i + r]; }
+        for (int i = 0; i < k.length; i++) k[i] /= (float) s;
+        return k;
+    }
+
+    private static void convolveRows(float[] src, float[] dst, int w, int h, float[] k) {
+        int r = k.length / 2;
+        for (int y = 0; y < h; y++) {
+            int row = y * w;
+            for (int x = 0; x < w; x++) {
+                float s = 0;
+                if (x >= r && x < w - r) {
+                    int b = row + x - r;
+                    for (int i = 0; i < k.length; i++) s += k[i] * src[b + i];
+                } else {
+                    for (int i = -r; i <= r; i++) {
+                        int xx = Math.min(w - 1, Math.max(0, x + i));
+                        s += k[i + r] * src[row + xx];
+                    }
+                }
+                dst[row + x] = s;
+            }
+        }
+    }
+
+    private static void convolveCols(float[] src, float[] dst, int w, int h, float[] k) {
+        int r = k.length / 2;
+        for (int y = 0; y < h; y++) {
+            int row = y * w;
+            java.util.Arrays.fill(dst, row, row + w, 0f);
+            for (int i = -r; i <= r; i++) {
+                int yy = Math.min(h - 1, Math.max(0, y + i)) * w;
+                float kv = k[i + r];
+                for (int x = 0; x < w; x++) dst[row + x] += kv * src[yy + x];
+            }
+        }
+    }
+
+    /** Box mean of radius r via running sums along rows then columns (borders clamped). */
+    static void boxMean(float[] src, float[] dst, float[] tmp, int w, int h, int r) {
+        float inv = 1f / (2 * r + 1);
+        for (int y = 0; y < h; y++) {
+            int row = y * w;
+            float s = 0;
+            for (int i = -r; i <= r; i++) s += src[row + Math.min(w - 1, Math.max(0, i))];
+            for (int x = 0; x < w; x++) {
+                tmp[row + x] = s * inv;
+                int add = Math.min(w - 1, x + r + 1), sub = Math.max(0, x - r);
+                s += src[row + add] - src[row + sub];
+            }
+        }
+        float[] acc = new float[w];
+        for (int i = -r; i <= r; i++) {
+            int yy = Math.min(h - 1, Math.max(0, i)) * w;
+            for (int x = 0; x < w; x++) acc[x] += tmp[yy + x];
+        }
+        for (int y = 0; y < h; y++) {
+            int row = y * w;
+            int add = Math.min(h - 1, y + r + 1) * w, sub = Math.max(0, y - r) * w;
+            for (int x = 0; x < w; x++) {
+                dst[row + x] = acc[x] * inv;
+                acc[x] += tmp[add + x] - tmp[sub + x];
+            }
+        }
+    }
+
+    /**
+     * Band-pass: the image minus its local mean (two box passes of radius r, close to a Gaussian of sigma
+     * r * 0.8). Removes slow offsets such as the whole board warming, keeps edges and texture.
+     */
+    static void highPass(float[] src, float[] dst, float[] tmp1, float[] tmp2, int w, int h, int r) {
+        boxMean(src, tmp1, tmp2, w, h, r);
+        boxMean(tmp1, dst, tmp2, w, h, r);
+        for (int i = 0; i < src.length; i++) dst[i] = src[i] - dst[i];
+    }
+
+    /** 2 x 2 block average: pixel (u, v) of the result covers source pixels 2u..2u+1, 2v..2v+1. */
+    static void halve(float[] src, int w, int h, float[] dst, int w2, int h2) {
+        for (int v = 0; v < h2; v++) {
+            int r0 = 2 * v * w, r1 = r0 + w;
+            for (int u = 0; u < w2; u++) {
+                int x = 2 * u;
+                dst[v * w2 + u] = 0.25f * (src[r0 + x] + src[r0 + x + 1] + src[r1 + x] + src[r1 + x + 1]);
+            }
+        }
+    }
+
+    /** Bilinear sample at (x, y), pixel centres at integers; NaN outside [0, w-1] x [0, h-1]. */
+    static float bilinear(float[] img, int w, int h, double x, double y) {
+        if (!(x >= 0 && y >= 0 && x <= w - 1 && y <= h - 1)) return Float.NaN;
+        int x0 = (int) x, y0 = (int) y;
+        if (x0 >= w - 1) x0 = w - 2;
+        if (y0 >= h - 1) y0 = h - 2;
+        if (x0 < 0) x0 = 0;
+        if (y0 < 0) y0 = 0;
+        float ax = (float) (x - x0), ay = (float) (y - y0);
+        int i = y0 * w + x0;
+        if (w == 1 || h == 1) return img[Math.min(i, img.length - 1)];
+        float top = img[i] + ax * (img[i + 1] - img[i]);
+        float bot = img[i + w] + ax * (img[i + w + 1] - img[i + w]);
+        return top + ay * (bot - top);
+    }
+}

@@ -1,0 +1,218 @@
+package org.risetrace.registration;
+
+import org.risetrace.board.Board;
+import org.risetrace.frame.Frame;
+
+import java.util.ArrayList;
+import java.util.Arrays;
+import java.util.List;
+
+/**
+ * The reference frame prepared once for registration, immutable afterwards and shared by all threads: its
+ * pyramid, the board region, per level the selected template pixels with their steepest-descent images for the
+ * inverse-compositional alignment, the pixels that score similarity, the check patches and the reference features.
+ */
+final class ReferenceModel {
+    /** Template pixels per level at most (the strongest gradients win). */
+    static final int MAX_TEMPLATE_PIXELS = 12000;
+    /** Score pixels at full resolution at most (a regular subsample of the board). */
+    static final int MAX_SCORE_PIXELS = 8000;
+    /** Check patches on a GRID x GRID lattice over the board. */
+    static final int GRID = 5;
+
+    final String referenceName;
+    final Board board;
+    final int width, height, levels;
+    final Pyramid pyramid;
+    final Homography boardToReference;
+    final double[][] referenceCornersPx;
+    final Level[] level;
+    final float[] scoreX, scoreY, scoreT;
+    final List<Patch> patches;
+    final FeatureSet features;
+    final double referenceBandStd;
+
+    /** Template pixels of one level (level coordinates) and their steepest-descent images. */
+    static final class Level {
+        final int w, h, n;
+        final float[] x, y, t, sd;
+        final double cx, cy, sc;
+
+        Level(int w, int h, float[] x, float[] y, float[] t, float[] sd, double cx, double cy, double sc) {
+            this.w = w; this.h = h; this.n = x.length; this.x = x; this.y = y; this.t = t; this.sd = sd;
+            this.cx = cx; this.cy = cy; this.sc = sc;
+        }
+    }
+
+    /** A small square of the board used to check the final mapping locally (translation-only alignment). */
+    static final class Patch {
+        final double cx, cy;
+        final float[] dx, dy, t, gx, gy;
+        final double i11, i12, i22; // inverse of the 2 x 2 Gauss-Newton matrix
+
+        Patch(double cx, double cy, float[] dx, float[] dy, float[] t, float[] gx, float[] gy,
+              double i11, double i12, double i22) {
+            this.cx = cx; this.cy = cy; this.dx = dx; this.dy = dy; this.t = t; this.gx = gx; this.gy = gy;
+            this.i11 = i11; this.i12 = i12; this.i22 = i22;
+        }
+    }
+
+    private ReferenceModel(Frame ref, Board board, RegistrationConfig config) {
+        this.referenceName = board.outline().frame();
+        this.board = board;
+        this.width = ref.width();
+        this.height = ref.height();
+        this.levels = config.pyramidLevels() > 0 ? config.pyramidLevels() : Pyramid.autoLevels(width, height);
+        this.pyramid = new Pyramid();
+        pyramid.build(ref.celsius(), width, height, levels);
+        this.boardToReference = Homographies.boardToFrame(board, board.outline().cornersPx());
+        this.referenceCornersPx = Homographies.boardCorners(board, boardToReference);
+        this.level = new Level[levels];
+        for (int l = 0; l < levels; l++) level[l] = selectTemplate(l);
+        // score pixels: regular subsample of the board itself (no margin)
+        List<float[]> sp = new ArrayList<>();
+        double area = Math.abs(polygonArea(referenceCornersPx));
+        int stride = Math.max(1, (int) Math.ceil(Math.sqrt(area / MAX_SCORE_PIXELS)));
+        float[] b0 = pyramid.bandPass[0];
+        double sum = 0, sum2 = 0;
+        for (int y = 1; y < height - 1; y += stride)
+            for (int x = 1; x < width - 1; x += stride)
+                if (insideBy(referenceCornersPx, x, y, 0)) {
+                    sp.add(new float[]{x, y, b0[y * width + x]});
+                    sum += b0[y * width + x];
+                    sum2 += b0[y * width + x] * b0[y * width + x];
+                }
+        scoreX = new float[sp.size()];
+        scoreY = new float[sp.size()];
+        scoreT = new float[sp.size()];
+        for (int i = 0; i < sp.size(); i++) { scoreX[i] = sp.get(i)[0]; scoreY[i] = sp.get(i)[1]; scoreT[i] = sp.get(i)[2]; }
+        double m = sp.isEmpty() ? 0 : sum / sp.size();
+        referenceBandStd = sp.isEmpty() ? 0 : Math.sqrt(Math.max(0, sum2 / sp.size() - m * m));
+        patches = selectPatches();
+        features = config.method().equals("search") ? null : FeatureSet.detect(pyramid.bandPass[0], width, height,
+                referenceCornersPx, 2.0);
+    }
+
+    static ReferenceModel prepare(Frame ref, Board board, RegistrationConfig config) {
+        return new ReferenceModel(ref, board, config);
+    }
+
+    /** Board corners in level coordinates. */
+    double[][] cornersAtLevel(int l) {
+        double s = Pyramid.scale(l), o = (s - 1) / 2;
+        double[][] c = new double[4][];
+        for (int i = 0; i < 4; i++)
+            c[i] = new double[]{(referenceCornersPx[i][0] - o) / s, (referenceCornersPx[i][1] - o) / s};
+        return c;
+    }
+
+    private Level selectTemplate(int l) {
+        int w = pyramid.widths[l], h = pyramid.heights[l];
+        float[] img = pyramid.bandPass[l];
+        double[][] c = cornersAtLevel(l);
+        double margin = Math.max(1.0, 2.0 / Pyramid.scale(l));
+        int cap = w * h;
+        float[] gm = new float[cap];
+        int[] idx = new int[cap];
+        int n = 0;
+        for (int y = 1; y < h - 1; y++)
+            for (int x = 1; x < w - 1; x++) {
+                if (!insideBy(c, x, y, margin)) continue;
+                int i = y * w + x;
+                float gx = 0.5f * (img[i + 1] - img[i - 1]), gy = 0.5f * (img[i + w] - img[i - w]);
+                float g = gx * gx + gy * gy;
+                if (g <= 0) continue;
+                gm[n] = g;
+                idx[n++] = i;
+            }
+        // keep the stronger 60 % (flat pixels only add noise to the normal equations), at most MAX_TEMPLATE_PIXELS
+        float[] sorted = Arrays.copyOf(gm, n);
+        Arrays.sort(sorted);
+        int keep = Math.min(MAX_TEMPLATE_PIXELS, Math.max(Math.min(n, 16), (int) (n * 0.6)));
+        float thr = n == 0 ? 0 : sorted[Math.max(0, n - keep)];
+        int m = 0;
+        for (int k = 0; k < n; k++) if (gm[k] >= thr && m < keep) m++;
+        float[] xs = new float[m], ys = new float[m], ts = new float[m], sd = new float[8 * m];
+        double cx = (w - 1) / 2.0, cy = (h - 1) / 2.0, sc = Math.max(w, h) / 2.0;
+        int j = 0;
+        for (int k = 0; k < n && j < m; k++) {
+            if (gm[k] < thr) continue;
+            int i = idx[k];
+            int x = i % w, y = i / w;
+            float gx = 0.5f * (img[i + 1] - img[i - 1]), gy = 0.5f * (img[i + w] - img[i - w]);
+            xs[j] = x; ys[j] = y; ts[j] = img[i];
+            double xn = (x - cx) / sc, yn = (y - cy) / sc;
+            double gxs = gx * sc, gys = gy * sc, r = gxs * xn + gys * yn;
+            int o = 8 * j;
+            // steepest descent images of the 8-parameter homography at the identity (Baker and Matthews 2004)
+            sd[o] = (float) (gxs * xn); sd[o + 1] = (float) (gys * xn);
+            sd[o + 2] = (float) (gxs * yn); sd[o + 3] = (float) (gys * yn);
+            sd[o + 4] = (float) gxs; sd[o + 5] = (float) gys;
+            sd[o + 6] = (float) (-xn * r); sd[o + 7] = (float) (-yn * r);
+            j++;
+        }
+        return new Level(w, h, xs, ys, ts, sd, cx, cy, sc);
+    }
+
+    private List<Patch> selectPatches() {
+        int r = Math.max(4, Math.min(10, Math.min(width, height) / 20));
+        float[] img = pyramid.bandPass[0];
+        List<Patch> candidates = new ArrayList<>();
+        List<Double> strength = new ArrayList<>();
+        double[][] c = referenceCornersPx;
+        for (int gj = 0; gj < GRID; gj++)
+            for (int gi = 0; gi < GRID; gi++) {
+                double u = (gi + 0.5) / GRID, v = (gj + 0.5) / GRID;
+                // bilinear interpolation of the outline quad (close enough to the projective centre for placement)
+                double px = (1 - v) * ((1 - u) * c[0][0] + u * c[1][0]) + v * ((1 - u) * c[3][0] + u * c[2][0]);
+                double py = (1 - v) * ((1 - u) * c[0][1] + u * c[1][1]) + v * ((1 - u) * c[3][1] + u * c[2][1]);
+                int x0 = (int) Math.round(px), y0 = (int) Math.round(py);
+                if (x0 - r < 1 || y0 - r < 1 || x0 + r >= width - 1 || y0 + r >= height - 1) continue;
+                int size = (2 * r + 1) * (2 * r + 1);
+                float[] dx = new float[size], dy = new float[size], t = new float[size], gx = new float[size],
+                        gy = new float[size];
+                double a11 = 0, a12 = 0, a22 = 0;
+                int k = 0;
+                for (int y = y0 - r; y <= y0 + r; y++)
+                    for (int x = x0 - r; x <= x0 + r; x++) {
+                        int i = y * width + x;
+                        dx[k] = x - x0; dy[k] = y - y0; t[k] = img[i];
+                        gx[k] = 0.5f * (img[i + 1] - img[i - 1]);
+                        gy[k] = 0.5f * (img[i + width] - img[i - width]);
+                        a11 += gx[k] * gx[k]; a12 += gx[k] * gy[k]; a22 += gy[k] * gy[k];
+                        k++;
+                    }
+                double det = a11 * a22 - a12 * a12;
+                double lmin = 0.5 * (a11 + a22 - Math.sqrt((a11 - a22) * (a11 - a22) + 4 * a12 * a12));
+                if (det <= 0 || lmin <= 0) continue;
+                candidates.add(new Patch(x0, y0, dx, dy, t, gx, gy, a22 / det, -a12 / det, a11 / det));
+                strength.add(lmin);
+            }
+        // keep patches with a well-conditioned structure tensor (Shi and Tomasi 1994): smallest eigenvalue at least
+        // a tenth of the best patch's
+        double best = strength.stream().mapToDouble(Double::doubleValue).max().orElse(0);
+        List<Patch> out = new ArrayList<>();
+        for (int i = 0; i < candidates.size(); i++) if (strength.get(i) >= 0.1 * best) out.add(candidates.get(i));
+        return out;
+    }
+
+    /** True when (x, y) lies inside the convex quad (positive orientation, y down) or within margin of it. */
+    static boolean insideBy(double[][] c, double x, double y, double margin) {
+        for (int i = 0; i < 4; i++) {
+            double[] a = c[i], b = c[(i + 1) % 4];
+            double ex = b[0] - a[0], ey = b[1] - a[1];
+            double cross = ex * (y - a[1]) - ey * (x - a[0]);
+            if (cross < -margin * Math.hypot(ex, ey)) return false;
+        }
+        return true;
+    }
+
+    static double polygonArea(double[][] c) {
+        double s = 0;
+        for (int i = 0; i < c.length; i++) {
+            double[] a = c[i], b = c[(i + 1) % c.length];
+            s += a[0] * b[1] - b[0] * a[1];
+        }
+        return s / 2;
+    }
+}

@@ -9,7 +9,6 @@ import org.risetrace.board.Part;
 import org.risetrace.io.Sidecar;
 import org.risetrace.io.write.FrameEncoding;
 import org.risetrace.io.write.FrameWriters;
-import org.risetrace.registration.Homography;
 
 import java.io.IOException;
 import java.io.UncheckedIOException;
@@ -113,9 +112,9 @@ public final class Simulator {
 
         int n = s.frames().count();
         double wMm = s.board().widthMm(), hMm = s.board().heightMm();
-        Homography base = CameraModel.basePose(s.camera(), wMm, hMm);
-        Homography[] motion = CameraModel.motions(s.camera(), n, s.seed());
-        Homography[] boardToFrame = new Homography[n];
+        PlaneMapping base = CameraModel.basePose(s.camera(), wMm, hMm);
+        PlaneMapping[] motion = CameraModel.motions(s.camera(), n, s.seed());
+        PlaneMapping[] boardToFrame = new PlaneMapping[n];
         for (int k = 0; k < n; k++) boardToFrame[k] = motion[k].compose(base);
 
         FrameEncoding enc = s.camera().encodingOrDefault();

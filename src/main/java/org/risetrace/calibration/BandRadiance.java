@@ -9,9 +9,10 @@ import java.util.concurrent.ConcurrentHashMap;
  *
  * <p>Between {@value #TABLE_FROM_C} and {@value #TABLE_TO_C} degrees Celsius the radiance and its temperature
  * derivative are tabulated every {@value #STEP_K} K by quadrature ({@link Planck#bandRadiance}) and interpolated by
- * cubic Hermite polynomials; the inverse finds the table interval by bisection on the monotone radiance column and
- * solves the interval's cubic by Newton's method. The interpolation error is below 1e-9 K (the step is small against
- * the curvature of L(T)); outside the table both directions fall back to quadrature and a bracketed Newton's method.
+ * cubic Hermite polynomials; the inverse finds the table interval through an index of equal steps in ln L (the
+ * column is monotone) and solves the interval's cubic by Newton's method. The interpolation error is about 1e-11
+ * relative in L and 1e-9 K in T (the step is small against the curvature of L(T)); outside the table both
+ * directions fall back to quadrature and a bracketed Newton's method.
  *
  * <p>Instances are immutable and thread-safe; {@link #of(double[])} caches one per band.
  */
@@ -32,6 +33,10 @@ public final class BandRadiance {
     private final double t0Kelvin;
     private final double[] radiance;     // W m^-2 sr^-1 at t0 + i * STEP_K
     private final double[] derivative;   // dL/dT at the same nodes, W m^-2 sr^-1 K^-1
+    /** Index of the table interval at the start of each bin of equal width in ln L: the inverse's first guess. */
+    private final int[] binStart;
+    private final double lnL0, binsPerLn;
+    private static final int BINS = 4096;
 
     private record Band(double fromUm, double toUm) {
     }
@@ -47,6 +52,15 @@ public final class BandRadiance {
             double t = t0Kelvin + i * STEP_K;
             radiance[i] = Planck.bandRadiance(fromUm, toUm, t);
             derivative[i] = Planck.bandRadianceDerivative(fromUm, toUm, t);
+        }
+        lnL0 = Math.log(radiance[0]);
+        binsPerLn = BINS / (Math.log(radiance[n - 1]) - lnL0);
+        binStart = new int[BINS + 1];
+        int i = 0;
+        for (int b = 0; b <= BINS; b++) {
+            double lnAtBin = lnL0 + b / binsPerLn;
+            while (i < n - 2 && Math.log(radiance[i + 1]) <= lnAtBin) i++;
+            binStart[b] = i;
         }
     }
 
@@ -109,13 +123,11 @@ public final class BandRadiance {
     public double kelvin(double bandRadiance) {
         int top = radiance.length - 1;
         if (bandRadiance >= radiance[0] && bandRadiance <= radiance[top]) {
-            // bisection on the monotone column for the interval [lo, lo + 1] holding the radiance
-            int lo = 0, hi = top;
-            while (hi - lo > 1) {
-                int mid = (lo + hi) >>> 1;
-                if (radiance[mid] <= bandRadiance) lo = mid;
-                else hi = mid;
-            }
+            // the ln L bin gives the first table interval that may hold the radiance; step on to the right one
+            int bin = (int) ((Math.log(bandRadiance) - lnL0) * binsPerLn);
+            int lo = binStart[Math.max(0, Math.min(BINS, bin))];
+            while (lo > 0 && radiance[lo] > bandRadiance) lo--;
+            while (lo < top - 1 && radiance[lo + 1] <= bandRadiance) lo++;
             double l0 = radiance[lo], l1 = radiance[lo + 1];
             double d0 = derivative[lo] * STEP_K, d1 = derivative[lo + 1] * STEP_K;
             double s = (bandRadiance - l0) / (l1 - l0);

@@ -2,10 +2,6 @@ package org.risetrace.io;
 
 import org.risetrace.frame.InputRejected;
 
-import javax.imageio.metadata.IIOInvalidTreeException;
-import javax.imageio.plugins.tiff.BaselineTIFFTagSet;
-import javax.imageio.plugins.tiff.TIFFDirectory;
-import javax.imageio.plugins.tiff.TIFFField;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
@@ -40,20 +36,15 @@ public final class TiffReader implements FrameReader {
         // The JDK plug-in refuses the horizontal predictor for 16-bit samples: decode the differences (Predictor
         // set to 1 in a copy of the header) and accumulate them here, TIFF 6.0 section 14.
         byte[] source = undoPredictor ? ifd.withShort(bytes, TiffHeader.TAG_PREDICTOR, 1) : bytes;
-        ImageIoDecoding.Decoded d = ImageIoDecoding.decode(file, source, "tiff", "TIFF", context, true);
-        TIFFDirectory dir;
-        try {
-            dir = TIFFDirectory.createFromMetadata(d.metadata());
-        } catch (IIOInvalidTreeException e) {
-            throw ImageIoDecoding.damaged(file, "TIFF", e);
+        if (ifd != null) {
+            if (ifd.value(TiffHeader.TAG_PHOTOMETRIC, 1) == 0)
+                throw new InputRejected(file, "TIFF stores grey as WhiteIsZero (PhotometricInterpretation 0)",
+                        "export BlackIsZero greyscale or radiometric frames");
+            checkExtents(file, ifd, bytes);
         }
-        int photometric = intTag(dir, BaselineTIFFTagSet.TAG_PHOTOMETRIC_INTERPRETATION, -1);
-        if (photometric == BaselineTIFFTagSet.PHOTOMETRIC_INTERPRETATION_WHITE_IS_ZERO)
-            throw new InputRejected(file, "TIFF stores grey as WhiteIsZero (PhotometricInterpretation 0)",
-                    "export BlackIsZero greyscale or radiometric frames");
-        checkExtents(file, dir, bytes.length);
-        String detail = detail(dir, bytes[0] == 'I');
-        RawSamples s = ImageIoDecoding.samples(file, d.image(), 0, undoPredictor ? detail + ", horizontal predictor" : detail);
+        ImageIoDecoding.Decoded d = ImageIoDecoding.decode(file, source, "tiff", "TIFF", context, false);
+        String detail = ifd == null ? "" : detail(ifd, undoPredictor);
+        RawSamples s = ImageIoDecoding.samples(file, d.image(), 0, detail);
         if (undoPredictor) {
             if (s.kind() != RawSamples.Kind.COUNTS || d.image().getRaster().getNumBands() != 1)
                 throw new InputRejected(file, "TIFF with the horizontal predictor on " + s.describe()
@@ -62,6 +53,37 @@ public final class TiffReader implements FrameReader {
             accumulate(s.u16(), s.width(), s.height(), tileWidth);
         }
         return s;
+    }
+
+    /**
+     * Every strip or tile must lie inside the file (TIFF 6.0: StripOffsets/StripByteCounts, tags 273/279;
+     * TileOffsets/TileByteCounts, 324/325), so a truncated file is refused rather than read as zeros.
+     */
+    private static void checkExtents(Path file, TiffHeader ifd, byte[] bytes) {
+        boolean tiled = ifd.has(TiffHeader.TAG_TILE_OFFSETS);
+        long[] offsets = ifd.values(bytes, tiled ? TiffHeader.TAG_TILE_OFFSETS : TiffHeader.TAG_STRIP_OFFSETS);
+        long[] counts = ifd.values(bytes, tiled ? TiffHeader.TAG_TILE_BYTE_COUNTS : TiffHeader.TAG_STRIP_BYTE_COUNTS);
+        if (offsets == null || counts == null) return; // the decoder reports what is missing
+        for (int i = 0; i < Math.min(offsets.length, counts.length); i++) {
+            long end = offsets[i] + counts[i];
+            if (end > bytes.length)
+                throw new InputRejected(file, "truncated TIFF file: " + (tiled ? "tile " : "strip ") + i
+                        + " ends at byte " + end + " but the file has " + bytes.length + " bytes");
+        }
+    }
+
+    private static String detail(TiffHeader ifd, boolean predictor) {
+        List<String> parts = new ArrayList<>();
+        long format = ifd.value(TiffHeader.TAG_SAMPLE_FORMAT, 1);
+        parts.add(ifd.value(TiffHeader.TAG_BITS_PER_SAMPLE, 1) + "-bit "
+                + (format == 3 ? "float" : format == 2 ? "signed" : "unsigned"));
+        long compression = ifd.value(TiffHeader.TAG_COMPRESSION, 1);
+        parts.add(compression == 1 ? "uncompressed" : compression == 5 ? "LZW" : compression == 8 || compression == 32946
+                ? "Deflate" : compression == 32773 ? "PackBits" : compression == 7 ? "JPEG" : "compression " + compression);
+        if (predictor || ifd.value(TiffHeader.TAG_PREDICTOR, 1) == 2) parts.add("horizontal predictor");
+        parts.add(ifd.has(TiffHeader.TAG_TILE_OFFSETS) ? "tiled" : "striped");
+        parts.add(ifd.littleEndian ? "little-endian" : "big-endian");
+        return String.join(", ", parts);
     }
 
     /** Undoes horizontal differencing: within each row of each strip or tile, a sample adds its left neighbour (mod 2^16). */
@@ -103,47 +125,5 @@ public final class TiffReader implements FrameReader {
         } catch (java.io.IOException | RuntimeException e) {
             throw ImageIoDecoding.damaged(file, "TIFF", e);
         }
-    }
-
-    private static int intTag(TIFFDirectory dir, int tag, int fallback) {
-        TIFFField f = dir.getTIFFField(tag);
-        return f == null ? fallback : f.getAsInt(0);
-    }
-
-    /** Every strip or tile must lie inside the file (TIFF 6.0, StripOffsets/StripByteCounts, tags 273/279, 324/325). */
-    private static void checkExtents(Path file, TIFFDirectory dir, long length) {
-        boolean tiled = dir.getTIFFField(BaselineTIFFTagSet.TAG_TILE_OFFSETS) != null;
-        TIFFField offsets = dir.getTIFFField(tiled ? BaselineTIFFTagSet.TAG_TILE_OFFSETS
-                : BaselineTIFFTagSet.TAG_STRIP_OFFSETS);
-        TIFFField counts = dir.getTIFFField(tiled ? BaselineTIFFTagSet.TAG_TILE_BYTE_COUNTS
-                : BaselineTIFFTagSet.TAG_STRIP_BYTE_COUNTS);
-        if (offsets == null) throw new InputRejected(file, "TIFF without strip or tile offsets");
-        if (counts == null) return;
-        int n = Math.min(offsets.getCount(), counts.getCount());
-        for (int i = 0; i < n; i++) {
-            long end = offsets.getAsLong(i) + counts.getAsLong(i);
-            if (end > length)
-                throw new InputRejected(file, "truncated TIFF file: " + (tiled ? "tile " : "strip ") + i
-                        + " ends at byte " + end + " but the file has " + length + " bytes");
-        }
-    }
-
-    private static String detail(TIFFDirectory dir, boolean little) {
-        List<String> parts = new ArrayList<>();
-        int bits = intTag(dir, BaselineTIFFTagSet.TAG_BITS_PER_SAMPLE, 1);
-        int format = intTag(dir, BaselineTIFFTagSet.TAG_SAMPLE_FORMAT, 1);
-        parts.add(bits + "-bit " + (format == 3 ? "float" : format == 2 ? "signed" : "unsigned"));
-        int compression = intTag(dir, BaselineTIFFTagSet.TAG_COMPRESSION, 1);
-        parts.add(switch (compression) {
-            case 1 -> "uncompressed";
-            case 5 -> "LZW";
-            case 8, 32946 -> "Deflate";
-            case 32773 -> "PackBits";
-            case 7 -> "JPEG";
-            default -> "compression " + compression;
-        });
-        parts.add(dir.getTIFFField(BaselineTIFFTagSet.TAG_TILE_OFFSETS) != null ? "tiled" : "striped");
-        parts.add(little ? "little-endian" : "big-endian");
-        return String.join(", ", parts);
     }
 }

@@ -167,17 +167,13 @@ final class Renderer {
         return classEmissivity.size() - 1;
     }
 
-    /** Builds the apparent-temperature tables over [loC, hiC]; returns true when the radiance stand-in was used. */
-    boolean prepare(double loC, double hiC) {
+    /** Builds the apparent-temperature tables over [loC, hiC] of object temperature. */
+    void prepare(double loC, double hiC) {
         double refl = s.reflectedCOrDefault();
         double lo = Math.min(loC, refl) - 2, hi = Math.max(hiC, refl) + 2;
         tables = new ApparentTable[classEmissivity.size()];
-        boolean standIn = false;
-        for (int k = 0; k < tables.length; k++) {
+        for (int k = 0; k < tables.length; k++)
             tables[k] = new ApparentTable(classEmissivity.get(k), refl, s.camera().bandOrDefault(), lo, hi);
-            standIn |= tables[k].standIn;
-        }
-        return standIn;
     }
 
     /** Per-thread scratch buffers. */

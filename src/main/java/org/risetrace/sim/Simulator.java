@@ -109,7 +109,7 @@ public final class Simulator {
         BoardModel bm = hist.model();
         Renderer renderer = new Renderer(s, bm);
         double netd = s.camera().netdOrDefault() + s.camera().fixedPatternOrDefault();
-        boolean standIn = renderer.prepare(hist.loC() - 6 * netd, hist.hiC() + 6 * netd);
+        renderer.prepare(hist.loC() - 6 * netd, hist.hiC() + 6 * netd);
 
         int n = s.frames().count();
         double wMm = s.board().widthMm(), hMm = s.board().heightMm();
@@ -186,8 +186,7 @@ public final class Simulator {
         Truth truth = new Truth(s.name(), s.seed(), sources, tf, partTemps, partE, unmarked,
                 hist.ambientC()[0], s.reflectedCOrDefault(), s.frames().injectionStartS(), s.camera().netdOrDefault(),
                 s.fault().waveformOrDefault(), s.fault().periodS(),
-                new Truth.Grid(bm.nx, bm.ny, bm.dxMm, bm.dyMm, s.frames().timeStepOrDefault()), hist.energy(),
-                standIn ? "total-radiance stand-in" : "band-radiance");
+                new Truth.Grid(bm.nx, bm.ny, bm.dxMm, bm.dyMm, s.frames().timeStepOrDefault()), hist.energy());
 
         // board file: the outline as a user would click it on the first frame, to the nearest half pixel
         double[][] clicked = CameraModel.corners(boardToFrame[0], wMm, hMm);

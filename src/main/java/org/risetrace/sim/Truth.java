@@ -30,7 +30,6 @@ import java.util.Map;
  * @param periodS            square-wave period (null for step)
  * @param grid               the thermal grid
  * @param energy             energy bookkeeping of the run
- * @param radiometry         "band-radiance" or "total-radiance stand-in" (see ApparentTable)
  */
 @JsonInclude(JsonInclude.Include.NON_NULL)
 @JsonIgnoreProperties(ignoreUnknown = false)
@@ -49,8 +48,7 @@ public record Truth(
         @JsonProperty("waveform") String waveform,
         @JsonProperty("period_s") Double periodS,
         @JsonProperty("grid") Grid grid,
-        @JsonProperty("energy") Energy energy,
-        @JsonProperty("radiometry") String radiometry) {
+        @JsonProperty("energy") Energy energy) {
 
     /** A heat source: designator of a part or name of a trace, its power while on, its share of the total. */
     public record Source(@JsonProperty("ref") String ref, @JsonProperty("power_w") double powerW,

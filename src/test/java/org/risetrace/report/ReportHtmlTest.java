@@ -75,7 +75,10 @@ class ReportHtmlTest {
         }
         assertTrue(page.contains("RT-7 bench board"));
         assertTrue(page.contains("cases/rt7-bench/series-01"));
-        assertTrue(page.contains(a.result().createdUtc()));
+        assertTrue(page.contains("2026-12-01 23:40:00 UTC"), "analysis time in the header");
+        assertEquals("2026-12-01 23:31:25 UTC", ReportHtml.readableTime("2026-12-01T23:31:25.811668625Z"));
+        assertEquals("yesterday", ReportHtml.readableTime("yesterday"));
+        assertFalse(page.contains("could not be mapped onto the board"), "1 of 60 failed is no headline matter");
         assertTrue(page.contains("Customer says: no power after a spill."));
         assertTrue(page.contains("clip on the output capacitor bank"), "injection notes");
         assertTrue(page.contains("VCORE") && page.contains("3 A"), "injection record");
@@ -168,6 +171,27 @@ class ReportHtmlTest {
         assertTrue(page.contains("notes &lt;script&gt;x()&lt;/script&gt; &amp; more"));
         assertTrue(page.contains("V&quot;CC"));
         assertFalse(page.contains("<script"));
+    }
+
+    @Test
+    void manyFailedFramesAreSaidNextToTheVerdict() {
+        Analysis a = DemoAnalysis.build();
+        AnalysisResult r = a.result();
+        List<FrameRecord> frames = new ArrayList<>();
+        for (int i = 0; i < r.frames().size(); i++) {
+            FrameRecord f = r.frames().get(i);
+            boolean fail = i >= 20;
+            frames.add(fail ? new FrameRecord(f.file(), f.tS(), f.sha256(), false,
+                    new FrameRecord.Registration("failed", 0.5, "image similarity too low", null)) : f);
+        }
+        AnalysisResult worse = new AnalysisResult(r.schema(), r.tool(), r.version(), r.createdUtc(), r.series(),
+                r.board(), r.profile(), r.parameters(), r.injection(), r.verdict(), r.parts(), r.hotspots(), frames);
+        String page = ReportHtml.toHtml(new Analysis(worse, a.board(), a.curves(), a.riseMap(), a.onsetMap(),
+                a.lastFrame()), null);
+        int verdict = page.indexOf("<section class=\"verdict");
+        int warning = page.indexOf("40 of 60 frames could not be mapped onto the board and were left out; "
+                + "the answer rests on 20 frames.");
+        assertTrue(warning > verdict && warning < page.indexOf("</section>", verdict), "warning inside the verdict box");
     }
 
     @Test

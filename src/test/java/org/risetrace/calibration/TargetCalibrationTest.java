@@ -62,6 +62,7 @@ class TargetCalibrationTest {
         assertEquals(-0.8 / 1.015, r.profile().offset(), 0.05);
         // noise of 0.05 K averaged over 128 pixels: residuals far below the NETD
         assertTrue(r.maxResidualK() < 0.02, "residuals " + r.maxResidualK());
+        assertTrue(r.notes().isEmpty(), r.notes().toString());
 
         Path written = ProfileWriter.write(r, dir, false).get(0);
         Profile loaded = Profiles.load(written.toString());
@@ -94,6 +95,9 @@ class TargetCalibrationTest {
         CalibrationResult r = TargetCalibration.fit(CENTIKELVIN, pts, CalibrationModel.SAKUMA_HATTORI, "raw-cam");
         // Sakuma-Hattori interpolates band radiance to millikelvins (its purpose: Sakuma and Hattori 1982)
         for (double res : r.residualK()) assertEquals(0, res, 0.01);
+        // radiance grows about as T^4.5 in this band, so over 60 K no straight line follows it: the user is told
+        assertTrue(r.linearisationMaxErrorK() > 0.5, "linearisation " + r.linearisationMaxErrorK());
+        assertTrue(r.notes().stream().anyMatch(n -> n.contains("straight line departs")), r.notes().toString());
         // the linear profile is an approximation: the reported error bounds the profile's residuals
         for (double res : r.profileResidualK()) assertTrue(Math.abs(res) <= r.linearisationMaxErrorK() + 0.01);
         List<Path> files = ProfileWriter.write(r, dir, false);
@@ -138,6 +142,20 @@ class TargetCalibrationTest {
         assertThrows(InputRejected.class, () -> TargetCalibration.fit(CENTIKELVIN, swapped, CalibrationModel.GAIN_OFFSET, "x"));
         assertThrows(InputRejected.class, () -> TargetCalibration.fit(Profiles.load("f32-celsius"),
                 swapped, CalibrationModel.OFFSET, "x"));
+    }
+
+    @Test
+    void misplacedTargetsAndAnImplausibleCurveAreNoted() {
+        // a region half on the 30 C target and half on the 22 C background
+        List<Frame> frames = List.of(frame("a.pgm", 22, KNOWN, BOXES, 0.05, 1));
+        List<ReferenceTarget> t = new ArrayList<>(targets());
+        t.set(0, new ReferenceTarget(0, 4, 8, 8, 30, null));
+        CalibrationResult r = TargetCalibration.calibrate(frames, t, CENTIKELVIN, CalibrationModel.GAIN_OFFSET, "x");
+        assertTrue(r.notes().stream().anyMatch(n -> n.contains("not uniform")), r.notes().toString());
+        assertTrue(r.notes().stream().anyMatch(n -> n.contains("exceed 3 x NETD")), r.notes().toString());
+        // counts linear in temperature are not radiance: the Sakuma-Hattori curve's wavelength runs off the band
+        CalibrationResult sh = TargetCalibration.calibrate(frames, targets(), CENTIKELVIN, CalibrationModel.SAKUMA_HATTORI, "y");
+        assertTrue(sh.notes().stream().anyMatch(n -> n.contains("effective wavelength")), sh.notes().toString());
     }
 
     @Test

@@ -95,7 +95,7 @@ class TargetCalibrationTest {
         CalibrationResult r = TargetCalibration.fit(CENTIKELVIN, pts, CalibrationModel.SAKUMA_HATTORI, "raw-cam");
         // Sakuma-Hattori interpolates band radiance to millikelvins (its purpose: Sakuma and Hattori 1982)
         for (double res : r.residualK()) assertEquals(0, res, 0.01);
-        // radiance grows about as T^4.5 in this band, so over 60 K no straight line follows it: the user is told
+        // band radiance grows about as T^4.7 near 300 K in this band (Planck), so over 60 K no straight line follows it: the user is told
         assertTrue(r.linearisationMaxErrorK() > 0.5, "linearisation " + r.linearisationMaxErrorK());
         assertTrue(r.notes().stream().anyMatch(n -> n.contains("straight line departs")), r.notes().toString());
         // the linear profile is an approximation: the reported error bounds the profile's residuals

@@ -145,6 +145,21 @@ class TargetCalibrationTest {
     }
 
     @Test
+    void oneTargetHeatedInTurnIsReadInItsOwnFrames() {
+        // one block at 30, 60 and 90 C in three frames: each target names its frame, the others are not averaged in
+        int[][] box = {BOXES[0]};
+        List<Frame> frames = List.of(frame("t30.pgm", 22, new double[]{30}, box, 0.0, 1),
+                frame("t60.pgm", 22, new double[]{60}, box, 0.0, 2), frame("t90.pgm", 22, new double[]{90}, box, 0.0, 3));
+        List<ReferenceTarget> t = List.of(ReferenceTarget.parse("4,4,8,8=30@t30.pgm"),
+                ReferenceTarget.parse("4,4,8,8=60@t60.pgm"), ReferenceTarget.parse("4,4,8,8=90@t90.pgm"));
+        CalibrationResult r = TargetCalibration.calibrate(frames, t, CENTIKELVIN, CalibrationModel.GAIN_OFFSET, "turns");
+        assertEquals(64, r.points().get(1).pixels());
+        // noise-free counts rounded to whole counts of 0.01 K: residuals within a count
+        assertTrue(r.maxResidualK() < 0.01, "residuals " + r.maxResidualK());
+        assertEquals(0.01 / 1.015, r.profile().gain(), 1e-6);
+    }
+
+    @Test
     void misplacedTargetsAndAnImplausibleCurveAreNoted() {
         // a region half on the 30 C target and half on the 22 C background
         List<Frame> frames = List.of(frame("a.pgm", 22, KNOWN, BOXES, 0.05, 1));

@@ -9,7 +9,6 @@ import org.risetrace.board.Part;
 import org.risetrace.io.Sidecar;
 import org.risetrace.io.write.FrameEncoding;
 import org.risetrace.io.write.FrameWriters;
-import org.risetrace.registration.Homography;
 
 import java.io.IOException;
 import java.io.UncheckedIOException;
@@ -113,15 +112,16 @@ public final class Simulator {
 
         int n = s.frames().count();
         double wMm = s.board().widthMm(), hMm = s.board().heightMm();
-        Homography base = CameraModel.basePose(s.camera(), wMm, hMm);
-        Homography[] motion = CameraModel.motions(s.camera(), n, s.seed());
-        Homography[] boardToFrame = new Homography[n];
+        PlaneMapping base = CameraModel.basePose(s.camera(), wMm, hMm);
+        PlaneMapping[] motion = CameraModel.motions(s.camera(), n, s.seed());
+        PlaneMapping[] boardToFrame = new PlaneMapping[n];
         for (int k = 0; k < n; k++) boardToFrame[k] = motion[k].compose(base);
 
         FrameEncoding enc = s.camera().encodingOrDefault();
         String[] names = new String[n];
         for (int k = 0; k < n; k++) names[k] = String.format(java.util.Locale.ROOT, "f%04d.%s", k + 1, enc.extension());
         double[][] spans = new double[n][];
+        java.time.Instant exifStart = s.camera().exifStart() == null ? null : java.time.Instant.parse(s.camera().exifStart());
         int threads = Math.max(1, Math.min(2, Runtime.getRuntime().availableProcessors()));
         ExecutorService pool = Executors.newFixedThreadPool(threads, r -> {
             Thread th = new Thread(r, "risetrace-render");
@@ -141,7 +141,10 @@ public final class Simulator {
                     span = s.camera().autoSpanOrFalse() ? autoSpan(buf.image) : s.camera().spanC().clone();
                     spans[k] = span;
                 }
-                FrameWriters.write(outDir.resolve(names[k]), enc, renderer.width, renderer.height, buf.image, span);
+                Path file = outDir.resolve(names[k]);
+                FrameWriters.write(file, enc, renderer.width, renderer.height, buf.image, span);
+                if (exifStart != null && enc.extension().equals("tif"))
+                    FrameWriters.addExifTime(file, exifStart.plusNanos(Math.round(hist.tS()[k] * 1e9)));
             }));
         }
         try {

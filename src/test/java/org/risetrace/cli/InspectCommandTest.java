@@ -140,7 +140,7 @@ class InspectCommandTest {
     @Test
     void missingFileIsRejected() {
         Path f = dir.resolve("nothing-here.png");
-        assertRejected(run("inspect", f.toString()), f, "not found");
+        assertRejected(run("inspect", f.toString()), f, "no such file or folder");
     }
 
     @Test

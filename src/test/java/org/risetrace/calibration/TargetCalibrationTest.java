@@ -95,7 +95,7 @@ class TargetCalibrationTest {
         CalibrationResult r = TargetCalibration.fit(CENTIKELVIN, pts, CalibrationModel.SAKUMA_HATTORI, "raw-cam");
         // Sakuma-Hattori interpolates band radiance to millikelvins (its purpose: Sakuma and Hattori 1982)
         for (double res : r.residualK()) assertEquals(0, res, 0.01);
-        // radiance grows about as T^4.5 in this band, so over 60 K no straight line follows it: the user is told
+        // band radiance grows about as T^4.7 near 300 K in this band (Planck), so over 60 K no straight line follows it: the user is told
         assertTrue(r.linearisationMaxErrorK() > 0.5, "linearisation " + r.linearisationMaxErrorK());
         assertTrue(r.notes().stream().anyMatch(n -> n.contains("straight line departs")), r.notes().toString());
         // the linear profile is an approximation: the reported error bounds the profile's residuals
@@ -142,6 +142,21 @@ class TargetCalibrationTest {
         assertThrows(InputRejected.class, () -> TargetCalibration.fit(CENTIKELVIN, swapped, CalibrationModel.GAIN_OFFSET, "x"));
         assertThrows(InputRejected.class, () -> TargetCalibration.fit(Profiles.load("f32-celsius"),
                 swapped, CalibrationModel.OFFSET, "x"));
+    }
+
+    @Test
+    void oneTargetHeatedInTurnIsReadInItsOwnFrames() {
+        // one block at 30, 60 and 90 C in three frames: each target names its frame, the others are not averaged in
+        int[][] box = {BOXES[0]};
+        List<Frame> frames = List.of(frame("t30.pgm", 22, new double[]{30}, box, 0.0, 1),
+                frame("t60.pgm", 22, new double[]{60}, box, 0.0, 2), frame("t90.pgm", 22, new double[]{90}, box, 0.0, 3));
+        List<ReferenceTarget> t = List.of(ReferenceTarget.parse("4,4,8,8=30@t30.pgm"),
+                ReferenceTarget.parse("4,4,8,8=60@t60.pgm"), ReferenceTarget.parse("4,4,8,8=90@t90.pgm"));
+        CalibrationResult r = TargetCalibration.calibrate(frames, t, CENTIKELVIN, CalibrationModel.GAIN_OFFSET, "turns");
+        assertEquals(64, r.points().get(1).pixels());
+        // noise-free counts rounded to whole counts of 0.01 K: residuals within a count
+        assertTrue(r.maxResidualK() < 0.01, "residuals " + r.maxResidualK());
+        assertEquals(0.01 / 1.015, r.profile().gain(), 1e-6);
     }
 
     @Test

@@ -90,8 +90,8 @@ public final class AmbientSampler {
         for (int k = 0; k < xMm.length; k++) {
             double x = xMm[k], y = yMm[k];
             double s = h[6] * x + h[7] * y + h[8];
-            // frame pixel (u, v) covers [u, u+1): its centre is at u + 0.5
-            double u = (h[0] * x + h[1] * y + h[2]) / s - 0.5, v = (h[3] * x + h[4] * y + h[5]) / s - 0.5;
+            // frame pixel centres at integer coordinates (the registration stage's convention)
+            double u = (h[0] * x + h[1] * y + h[2]) / s, v = (h[3] * x + h[4] * y + h[5]) / s;
             if (!(u >= 0 && v >= 0 && u < w - 1 && v < ht - 1)) continue;
             int iu = (int) u, iv = (int) v;
             double fu = u - iu, fv = v - iv;

@@ -35,6 +35,15 @@ public final class Verdicts {
      */
     public static Verdict decide(List<Candidate> ranked, List<Hotspot> hotspots, double mapSigma, int weakFrames,
                                  int usedFrames, AnalysisOptions o) {
+        return decide(ranked, hotspots, mapSigma, weakFrames, usedFrames, o, "K/s");
+    }
+
+    /**
+     * The same rules on another measure: {@code unit} "K/s" for initial rates, "K" when the candidates carry rises
+     * (two-frame comparison) in place of rates.
+     */
+    public static Verdict decide(List<Candidate> ranked, List<Hotspot> hotspots, double mapSigma, int weakFrames,
+                                 int usedFrames, AnalysisOptions o, String unit) {
         double k = o.kSigma();
         Candidate lead = ranked.isEmpty() ? null : ranked.get(0);
         Candidate second = ranked.size() > 1 ? ranked.get(1) : null;
@@ -64,18 +73,18 @@ public final class Verdicts {
             return new Verdict(VerdictStatus.INCONCLUSIVE, null, null, null, null, "the board file marks no parts");
         if (!significant(lead, k))
             return new Verdict(VerdictStatus.INCONCLUSIVE, leadRef, leadRate, secondRef, sep,
-                    "too little heating: the fastest part, " + leadRef + ", rises at " + rate(lead)
+                    "too little heating: the fastest part, " + leadRef + (unit.equals("K") ? ", rose by " : ", rises at ") + rate(lead, unit)
                             + ", under " + num(k) + " standard errors from zero");
         if (sep != null && sep < o.separationSigma())
             return new Verdict(VerdictStatus.INCONCLUSIVE, leadRef, leadRate, secondRef, sep,
-                    "two parts level: " + leadRef + " (" + rate(lead) + ") and " + secondRef + " (" + rate(second)
+                    "two parts level: " + leadRef + " (" + rate(lead, unit) + ") and " + secondRef + " (" + rate(second, unit)
                             + ") differ by " + num(sep) + " combined standard errors, under " + num(o.separationSigma()));
         if (usedFrames > 0 && weakFrames > o.weakFractionLimit() * usedFrames)
             return new Verdict(VerdictStatus.INCONCLUSIVE, leadRef, leadRate, secondRef, sep,
                     "registration weak in " + weakFrames + " of " + usedFrames + " frames: " + leadRef
                             + " leads, but check the alignment and capture again with the camera held still");
         return new Verdict(VerdictStatus.IDENTIFIED, leadRef, leadRate, secondRef, sep,
-                leadRef + " heats fastest: " + rate(lead)
+                leadRef + (unit.equals("K") ? " warmed most: " : " heats fastest: ") + rate(lead, unit)
                         + (sep == null ? "" : ", " + num(sep) + " combined standard errors ahead of " + secondRef));
     }
 
@@ -83,8 +92,8 @@ public final class Verdicts {
         return c.rateKPerS() != null && c.rateSe() != null && c.rateKPerS() > k * c.rateSe();
     }
 
-    private static String rate(Candidate c) {
-        return String.format(Locale.ROOT, "%.4f ± %.4f K/s", c.rateKPerS(), c.rateSe());
+    private static String rate(Candidate c, String unit) {
+        return String.format(Locale.ROOT, "%.4f ± %.4f %s", c.rateKPerS(), c.rateSe(), unit);
     }
 
     private static String num(double v) {

@@ -1,12 +1,157 @@
 package org.risetrace.cli;
 
+import com.fasterxml.jackson.databind.ObjectMapper;
+import com.fasterxml.jackson.databind.SerializationFeature;
+import org.risetrace.analysis.Analysis;
+import org.risetrace.analysis.AnalysisOptions;
+import org.risetrace.analysis.Analyzer;
+import org.risetrace.analysis.SeriesAnalyzer;
+import org.risetrace.analysis.Verdict;
+import org.risetrace.board.Board;
+import org.risetrace.board.BoardFile;
+import org.risetrace.frame.InputRejected;
+import org.risetrace.io.Series;
+import picocli.CommandLine;
 import picocli.CommandLine.Command;
+import picocli.CommandLine.Option;
+import picocli.CommandLine.Parameters;
 
-/** Placeholder until the stage lands. */
-@Command(name = "analyze", mixinStandardHelpOptions = true, description = "Finds the part heating fastest above ambient in a series.")
-public final class AnalyzeCommand implements Runnable {
+import java.io.IOException;
+import java.io.PrintWriter;
+import java.io.UncheckedIOException;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.Locale;
+import java.util.concurrent.Callable;
+
+/** {@code risetrace analyze}: one series folder against its board file. */
+@Command(name = "analyze", mixinStandardHelpOptions = true,
+        description = "Finds the part heating fastest above ambient in a series.")
+public final class AnalyzeCommand implements Callable<Integer> {
+    @CommandLine.Spec
+    CommandLine.Model.CommandSpec spec;
+
+    @Parameters(index = "0", paramLabel = "<series-folder>", description = "folder of frames (with series.json)")
+    Path series;
+
+    @Option(names = "--board", paramLabel = "<board.json>", description = "board file (default: board.json in the series folder)")
+    Path board;
+
+    @Option(names = "--out", paramLabel = "<dir>", description = "output folder (default: risetrace-out/<series name>)")
+    Path out;
+
+    @Option(names = "--json", description = "print analysis.json on stdout; messages go to stderr")
+    boolean json;
+
+    @Option(names = "--profile", paramLabel = "<name|file>", description = "calibration profile (overrides series.json)")
+    String profile;
+
+    @CommandLine.Mixin
+    Tunables tunables = new Tunables();
+
+    /** The analysis options every analysing command shares. */
+    public static final class Tunables {
+        @Option(names = "--baseline-frames", paramLabel = "N",
+                description = "baseline = the first N frames when series.json gives no injection start (default: the first frame)")
+        Integer baselineFrames;
+
+        @Option(names = "--k-sigma", paramLabel = "K", description = "onset and significance threshold in noise sigmas (default: ${DEFAULT-VALUE})")
+        double kSigma = AnalysisOptions.defaults().kSigma();
+
+        @Option(names = "--rate-window", paramLabel = "S", description = "early window for initial rates, seconds after the injection start (default: ${DEFAULT-VALUE})")
+        double rateWindowS = AnalysisOptions.defaults().rateWindowS();
+
+        @Option(names = "--separation", paramLabel = "S", description = "combined standard errors the leader must lead by (default: ${DEFAULT-VALUE})")
+        double separation = AnalysisOptions.defaults().separationSigma();
+
+        @Option(names = "--last-frames", paramLabel = "N", description = "frames averaged for the end rise and the rise map (default: ${DEFAULT-VALUE})")
+        int lastFrames = AnalysisOptions.defaults().lastFrames();
+
+        @Option(names = "--px-per-mm", paramLabel = "P", description = "board-space resolution (default: the reference frame's own)")
+        Double pxPerMm;
+
+        @Option(names = "--threads", paramLabel = "N", description = "worker threads (default: all cores, at least 2)")
+        Integer threads;
+
+        AnalysisOptions options(CommandLine cl) {
+            try {
+                return AnalysisOptions.defaults().withBaselineFrames(baselineFrames).withKSigma(kSigma)
+                        .withRateWindowS(rateWindowS).withSeparationSigma(separation).withLastFrames(lastFrames)
+                        .withPxPerMm(pxPerMm);
+            } catch (IllegalArgumentException e) {
+                throw new CommandLine.ParameterException(cl, e.getMessage());
+            }
+        }
+
+        int threads() {
+            return threads == null ? SeriesAnalyzer.defaultThreads() : Math.max(1, threads);
+        }
+    }
+
     @Override
-    public void run() {
-        System.err.println("risetrace analyze: not built yet");
+    public Integer call() {
+        AnalysisOptions options = tunables.options(spec.commandLine());
+        PrintWriter err = spec.commandLine().getErr();
+        if (!Files.isDirectory(series)) throw new InputRejected(series, "not a folder", "name the folder of frames");
+        Series s = Series.open(series, profile, org.risetrace.io.ReadContext.DEFAULT_MAX_PIXELS);
+        for (String w : s.warnings()) err.println("risetrace: " + w);
+        Path boardFile = board != null ? board : series.resolve("board.json");
+        if (!Files.isRegularFile(boardFile))
+            throw new InputRejected(boardFile, "board file not found", "mark the board with 'risetrace board' or pass --board");
+        Board b = BoardFile.read(boardFile, null);
+        Analysis a = SeriesAnalyzer.analyze(s, b, boardFile, series.toString(), options,
+                SeriesAnalyzer.emissivity(s.profile()), tunables.threads(), progress(err));
+        Path dir = out != null ? out : Path.of("risetrace-out", series.toAbsolutePath().normalize().getFileName().toString());
+        writeOutputs(a, dir);
+        if (json) {
+            PrintWriter o = spec.commandLine().getOut();
+            o.println(toJson(a));
+            o.flush();
+        } else {
+            spec.commandLine().getOut().println(line(series.getFileName().toString(), a.result().verdict()));
+            spec.commandLine().getOut().println("report: " + dir.resolve("report.html"));
+        }
+        err.flush();
+        return Main.EXIT_OK;
+    }
+
+    /** One line for a verdict. */
+    static String line(String name, Verdict v) {
+        return String.format(Locale.ROOT, "%s: %s%s - %s", name, v.status().word(),
+                v.ref() == null ? "" : " " + v.ref(), v.reason());
+    }
+
+    /** A progress line on stderr, only when there is a terminal to redraw it on. */
+    static Analyzer.Progress progress(PrintWriter err) {
+        if (System.console() == null) return Analyzer.Progress.NONE;
+        return (done, total) -> {
+            if (total < 20) return;
+            if (done % 5 == 0 || done == total) {
+                int w = 30, filled = (int) ((long) w * done / total);
+                err.print("\r[" + "#".repeat(filled) + " ".repeat(w - filled) + "] " + done + "/" + total + " frames");
+                if (done == total) err.println();
+                err.flush();
+            }
+        };
+    }
+
+    private static final ObjectMapper JSON = new ObjectMapper().enable(SerializationFeature.INDENT_OUTPUT);
+
+    static String toJson(Analysis a) {
+        try {
+            return JSON.writeValueAsString(a.result());
+        } catch (IOException e) {
+            throw new UncheckedIOException(e);
+        }
+    }
+
+    /** analysis.json, parts.csv and report.html into dir. */
+    static void writeOutputs(Analysis a, Path dir) {
+        try {
+            Files.createDirectories(dir);
+            Files.writeString(dir.resolve("analysis.json"), toJson(a) + "\n");
+        } catch (IOException e) {
+            throw new InputRejected(dir, "cannot write the results: " + e.getMessage());
+        }
     }
 }

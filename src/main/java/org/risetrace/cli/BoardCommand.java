@@ -1,12 +1,17 @@
 package org.risetrace.cli;
 
+import picocli.CommandLine;
 import picocli.CommandLine.Command;
 
-/** Placeholder until the stage lands. */
-@Command(name = "board", mixinStandardHelpOptions = true, description = "Board file tools.")
+/** {@code risetrace board}: board file tools. */
+@Command(name = "board", mixinStandardHelpOptions = true, description = "Board file tools.",
+        subcommands = {BoardImportPlacementCommand.class, BoardCheckCommand.class})
 public final class BoardCommand implements Runnable {
+    @CommandLine.Spec
+    CommandLine.Model.CommandSpec spec;
+
     @Override
     public void run() {
-        System.err.println("risetrace board: not built yet");
+        throw new CommandLine.ParameterException(spec.commandLine(), "name a board command: import-placement, check");
     }
 }

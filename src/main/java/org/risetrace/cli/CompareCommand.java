@@ -1,12 +1,82 @@
 package org.risetrace.cli;
 
+import org.risetrace.analysis.Analysis;
+import org.risetrace.analysis.SeriesAnalyzer;
+import org.risetrace.board.Board;
+import org.risetrace.board.BoardFile;
+import org.risetrace.frame.Frame;
+import org.risetrace.frame.InputRejected;
+import org.risetrace.io.Series;
+import picocli.CommandLine;
 import picocli.CommandLine.Command;
+import picocli.CommandLine.Option;
+import picocli.CommandLine.Parameters;
 
-/** Placeholder until the stage lands. */
-@Command(name = "compare", mixinStandardHelpOptions = true, description = "Compares a before and an after frame part by part.")
-public final class CompareCommand implements Runnable {
+import java.io.PrintWriter;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.List;
+import java.util.concurrent.Callable;
+
+/** {@code risetrace compare}: a before and an after frame, part by part. */
+@Command(name = "compare", mixinStandardHelpOptions = true,
+        description = "Compares a before and an after frame part by part.")
+public final class CompareCommand implements Callable<Integer> {
+    @CommandLine.Spec
+    CommandLine.Model.CommandSpec spec;
+
+    @Parameters(index = "0", paramLabel = "<before>", description = "frame before injection")
+    Path before;
+
+    @Parameters(index = "1", paramLabel = "<after>", description = "frame during or after injection")
+    Path after;
+
+    @Option(names = "--board", paramLabel = "<board.json>", description = "board file (default: board.json beside <before>)")
+    Path board;
+
+    @Option(names = "--out", paramLabel = "<dir>", description = "output folder (default: risetrace-out/compare)")
+    Path out;
+
+    @Option(names = "--json", description = "print analysis.json on stdout; messages go to stderr")
+    boolean json;
+
+    @Option(names = "--profile", paramLabel = "<name|file>", description = "calibration profile (overrides series.json)")
+    String profile;
+
+    @CommandLine.Mixin
+    AnalyzeCommand.Tunables tunables = new AnalyzeCommand.Tunables();
+
     @Override
-    public void run() {
-        System.err.println("risetrace compare: not built yet");
+    public Integer call() {
+        PrintWriter err = spec.commandLine().getErr();
+        Analysis a = run(before, after, board, profile, tunables, spec.commandLine(), err);
+        Path dir = out != null ? out : Path.of("risetrace-out", "compare");
+        AnalyzeCommand.writeOutputs(a, dir);
+        if (json) spec.commandLine().getOut().println(AnalyzeCommand.toJson(a));
+        else {
+            spec.commandLine().getOut().println(AnalyzeCommand.line(after.getFileName() + " vs " + before.getFileName(),
+                    a.result().verdict()));
+            spec.commandLine().getOut().println("report: " + dir.resolve("report.html"));
+        }
+        spec.commandLine().getOut().flush();
+        return Main.EXIT_OK;
+    }
+
+    static Analysis run(Path before, Path after, Path board, String profile, AnalyzeCommand.Tunables tunables,
+                        CommandLine cl, PrintWriter err) {
+        for (Path p : List.of(before, after))
+            if (!Files.isRegularFile(p)) throw new InputRejected(p, "frame file not found");
+        Path folder = before.toAbsolutePath().getParent();
+        Path sidecar = folder.resolve("series.json");
+        Series s = Series.open(List.of(before, after), Files.isRegularFile(sidecar) ? sidecar : null, profile);
+        for (String w : s.warnings()) err.println("risetrace: " + w);
+        int ib = s.fileName(0).equals(before.getFileName().toString()) ? 0 : 1;
+        Frame fb = s.read(ib), fa = s.read(1 - ib);
+        Path boardFile = board != null ? board : folder.resolve("board.json");
+        if (!Files.isRegularFile(boardFile))
+            throw new InputRejected(boardFile, "board file not found", "pass --board");
+        Board b = BoardFile.read(boardFile, null);
+        return SeriesAnalyzer.compare(fb, fa, b, boardFile, tunables.options(cl),
+                s.profile() == null ? null : s.profile().name());
     }
 }

@@ -1,12 +1,79 @@
 package org.risetrace.cli;
 
+import org.risetrace.board.Board;
+import org.risetrace.board.BoardFile;
+import org.risetrace.calibration.Materials;
+import org.risetrace.frame.Frame;
+import org.risetrace.frame.InputRejected;
+import org.risetrace.io.Series;
+import org.risetrace.registration.RegistrationConfig;
+import org.risetrace.registration.RegistrationReport;
+import org.risetrace.registration.SeriesRegistration;
 import picocli.CommandLine.Command;
+import picocli.CommandLine.Option;
+import picocli.CommandLine.Parameters;
 
-/** Placeholder until the stage lands. */
-@Command(name = "register", mixinStandardHelpOptions = true, description = "Maps every frame of a series onto the board.")
-public final class RegisterCommand implements Runnable {
+import java.nio.file.Path;
+import java.util.Locale;
+import java.util.concurrent.Callable;
+
+/** {@code risetrace register}: maps every frame of a series onto the board and writes registration.json. */
+@Command(name = "register", mixinStandardHelpOptions = true,
+        description = "Maps every frame of a series onto the board and writes registration.json.")
+public final class RegisterCommand implements Callable<Integer> {
+    @Parameters(index = "0", paramLabel = "<series-folder>", description = "folder of frames (with series.json)")
+    Path folder;
+
+    @Option(names = "--board", paramLabel = "<board.json>", description = "board file (default: board.json in the folder)")
+    Path boardFile;
+
+    @Option(names = "--out", paramLabel = "<dir>", description = "where registration.json goes (default: the folder)")
+    Path out;
+
+    @Option(names = "--write-rectified", description = "also write each usable frame in board space as a 16-bit PNG "
+            + "in centikelvin under <out>/rectified/")
+    boolean writeRectified;
+
+    @Option(names = "--px-per-mm", paramLabel = "X", description = "resolution of rectified frames (default: the "
+            + "reference frame's own scale)")
+    double pxPerMm;
+
+    @Option(names = "--method", paramLabel = "auto|features|search", description = "start estimates (default: auto)")
+    String method = "auto";
+
+    @picocli.CommandLine.Spec
+    picocli.CommandLine.Model.CommandSpec spec;
+
     @Override
-    public void run() {
-        System.err.println("risetrace register: not built yet");
+    public Integer call() {
+        Series series = Series.open(folder);
+        for (String w : series.warnings()) System.err.println("risetrace: warning: " + w);
+        Path bf = boardFile != null ? boardFile : folder.resolve("board.json");
+        Board board = BoardFile.read(bf, Materials.load().names());
+        int refIndex = -1;
+        for (int i = 0; i < series.size(); i++) if (series.fileName(i).equals(board.outline().frame())) refIndex = i;
+        if (refIndex < 0)
+            throw new InputRejected(bf, "reference frame '" + board.outline().frame() + "' (outline.frame) is not in "
+                    + folder, "name one of the series' frame files");
+        Frame reference = series.read(refIndex);
+        Path dir = out != null ? out : folder;
+        RegistrationConfig config;
+        try {
+            config = RegistrationConfig.defaults().withMethod(method);
+        } catch (IllegalArgumentException e) {
+            throw new picocli.CommandLine.ParameterException(spec.commandLine(), e.getMessage());
+        }
+        RegistrationReport report = SeriesRegistration.run(board, reference, series, config,
+                writeRectified ? dir.resolve("rectified") : null, pxPerMm);
+        Path file = dir.resolve(SeriesRegistration.FILE_NAME);
+        SeriesRegistration.write(report, file);
+        RegistrationReport.Summary s = report.summary();
+        System.out.printf(Locale.ROOT, "%d frames: %d ok, %d weak, %d failed, %d marked; mean check residual %s px -> %s%n",
+                s.frames(), s.ok(), s.weak(), s.failed(), s.marked(),
+                s.meanRmsPx() == null ? "n/a" : String.format(Locale.ROOT, "%.3f", s.meanRmsPx()), file);
+        for (RegistrationReport.Entry e : report.frames())
+            if (e.reason() != null && !e.status().word().equals("marked"))
+                System.out.println("  " + e.file() + ": " + e.status().word() + ": " + e.reason());
+        return Main.EXIT_OK;
     }
 }

@@ -82,9 +82,10 @@ final class ImageIoDecoding {
     static InputRejected damaged(Path file, String label, Exception e) {
         Throwable root = e;
         while (root.getCause() != null && root.getCause() != root) root = root.getCause();
-        String msg = e.getMessage() == null ? e.getClass().getSimpleName() : e.getMessage();
+        boolean eof = root instanceof java.io.EOFException;
+        String msg = e.getMessage() != null ? e.getMessage() : eof ? "unexpected end of file" : e.getClass().getSimpleName();
         if (root != e && root.getMessage() != null && !msg.contains(root.getMessage())) msg += ": " + root.getMessage();
-        if (root instanceof java.io.EOFException) msg += " (end of file)";
+        if (eof && !msg.contains("end of file")) msg += " (unexpected end of file)";
         return new InputRejected(file, "truncated or damaged " + label + " file: " + msg, null, e);
     }
 

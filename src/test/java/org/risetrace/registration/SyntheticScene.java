@@ -48,7 +48,10 @@ final class SyntheticScene {
     double valueAt(double x, double y, double heatK, double heatX, double heatY) {
         double inside = edge(x) * edge(widthMm - x) * edge(y) * edge(heightMm - y);
         double board = 25.0 + 0.3 * Math.sin(x * 0.35) * Math.cos(y * 0.27);
-        for (double[] q : rects) board += q[4] * edge(x - q[0]) * edge(q[2] - x) * edge(y - q[1]) * edge(q[3] - y);
+        for (double[] q : rects) {
+            if (x < q[0] - 1.5 || x > q[2] + 1.5 || y < q[1] - 1.5 || y > q[3] + 1.5) continue;
+            board += q[4] * edge(x - q[0]) * edge(q[2] - x) * edge(y - q[1]) * edge(q[3] - y);
+        }
         if (heatK != 0) {
             double dx = x - heatX, dy = y - heatY;
             board += heatK * Math.exp(-(dx * dx + dy * dy) / (2 * 3.0 * 3.0));
@@ -59,6 +62,8 @@ final class SyntheticScene {
 
     /** Smooth step over about 0.3 mm (a slightly soft edge, as optics and heat spreading give). */
     private static double edge(double d) {
+        if (d > 1.5) return 1;
+        if (d < -1.5) return 0;
         return 1 / (1 + Math.exp(-d / 0.12));
     }
 

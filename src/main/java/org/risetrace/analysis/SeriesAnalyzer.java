@@ -1,0 +1,112 @@
+package org.risetrace.analysis;
+
+import org.risetrace.board.Board;
+import org.risetrace.calibration.Profile;
+import org.risetrace.frame.Frame;
+import org.risetrace.frame.InputRejected;
+import org.risetrace.io.Series;
+import org.risetrace.io.Sidecar;
+import org.risetrace.registration.BoardRaster;
+import org.risetrace.registration.FrameRegistration;
+import org.risetrace.registration.Homography;
+import org.risetrace.registration.Rectifier;
+import org.risetrace.registration.Registrar;
+import org.risetrace.registration.RegistrationConfig;
+import org.risetrace.registration.Registrars;
+
+import java.nio.file.Path;
+
+/**
+ * The analysis of a series folder or of a before/after pair, put together from the stages: the import stage's
+ * {@link Series}, the registration stage's {@link Registrar} and {@link Rectifier}, and this stage's
+ * {@link Analyzer}, {@link SeriesAnalysis} and {@link PairAnalysis}.
+ */
+public final class SeriesAnalyzer {
+    private SeriesAnalyzer() {
+    }
+
+    /** Worker threads: every core, at least two (decoding of one frame overlaps registration of the next). */
+    public static int defaultThreads() {
+        return Math.max(2, Runtime.getRuntime().availableProcessors());
+    }
+
+    public static String version() {
+        String v = SeriesAnalyzer.class.getPackage().getImplementationVersion();
+        return v == null ? "dev" : v;
+    }
+
+    /**
+     * Analyses a series against its board file.
+     *
+     * @param seriesLabel the series as the user named it (for analysis.json)
+     * @param boardFile   the board file's path (for analysis.json and error messages)
+     */
+    public static Analysis analyze(Series series, Board board, Path boardFile, String seriesLabel,
+                                   AnalysisOptions options, EmissivityModel emissivity, int threads,
+                                   Analyzer.Progress progress) {
+        if (series.size() == 0) throw new InputRejected(series.folder(), "the series has no frames");
+        Frame reference = series.read(referenceIndex(series, board, boardFile));
+        Registrar registrar = Registrars.create(reference, board, RegistrationConfig.defaults());
+        double pxPerMm = options.pxPerMm() != null ? options.pxPerMm() : Rectifier.defaultPxPerMm(board);
+        Rectifier rectifier = new Rectifier(board, pxPerMm);
+        double[] times = new double[series.size()];
+        for (int i = 0; i < times.length; i++) times[i] = series.tSeconds(i);
+        Sidecar sidecar = series.sidecar() == null ? Sidecar.empty() : series.sidecar();
+        Sidecar.Injection injection = sidecar.injection();
+        BaselinePlan plan = BaselinePlan.plan(times, injection == null ? null : injection.startS(),
+                options.baselineFrames(), options.lastFrames());
+        AmbientSampler probe = AmbientSampler.forBoard(board, options.ambientGapMm(), options.ambientBandMm());
+        Profile profile = series.profile();
+        SeriesAnalysis.Context context = new SeriesAnalysis.Context(seriesLabel, boardFile == null ? null : boardFile.toString(),
+                profile == null ? null : profile.name(), injection, sidecar.reflectedC(), version(), probe.source());
+        SeriesAnalysis sa = new SeriesAnalysis(board, options, plan, emissivity, context);
+        FrameSource source = new FrameSource() {
+            @Override public int size() { return series.size(); }
+            @Override public String fileName(int i) { return series.fileName(i); }
+            @Override public double tSeconds(int i) { return series.tSeconds(i); }
+            @Override public Frame read(int i) { return series.read(i); }
+        };
+        return Analyzer.run(source, board, () -> mapper(registrar, rectifier),
+                () -> AmbientSampler.forBoard(board, options.ambientGapMm(), options.ambientBandMm()), sa, threads,
+                progress);
+    }
+
+    /** Compares two frames; the board outline is marked on one of them (or on a frame that looks like them). */
+    public static Analysis compare(Frame before, Frame after, Board board, Path boardFile, AnalysisOptions options,
+                                   String profileName) {
+        String refName = board.outline() == null ? null : board.outline().frame();
+        Frame reference = after.fileName().equals(refName) ? after : before;
+        Registrar registrar = Registrars.create(reference, board, RegistrationConfig.defaults());
+        double pxPerMm = options.pxPerMm() != null ? options.pxPerMm() : Rectifier.defaultPxPerMm(board);
+        AmbientSampler ambient = AmbientSampler.forBoard(board, options.ambientGapMm(), options.ambientBandMm());
+        SeriesAnalysis.Context context = new SeriesAnalysis.Context(before.source() + " -> " + after.source(),
+                boardFile == null ? null : boardFile.toString(), profileName, null, null, version(), ambient.source());
+        return PairAnalysis.compare(before, after, board, mapper(registrar, new Rectifier(board, pxPerMm)), ambient,
+                options, context);
+    }
+
+    /**
+     * The emissivity model for a series: the profile's default emissivity and band, with the radiometry stage's
+     * band-radiance correction; no correction when the profile is unknown.
+     */
+    public static EmissivityModel emissivity(Profile profile) {
+        if (profile == null) return EmissivityModel.none();
+        return EmissivityModel.of(material -> null, profile.defaultEmissivity(), profile.bandUm());
+    }
+
+    static BoardMapper mapper(Registrar registrar, Rectifier rectifier) {
+        return new BoardMapper() {
+            @Override public FrameRegistration register(Frame frame) { return registrar.register(frame); }
+            @Override public BoardRaster rectify(Frame frame, Homography h) { return rectifier.rectify(frame, h); }
+        };
+    }
+
+    /** The frame the outline was marked on; the first frame when the board file names none. */
+    static int referenceIndex(Series series, Board board, Path boardFile) {
+        String name = board.outline() == null ? null : board.outline().frame();
+        if (name == null || name.isBlank()) return 0;
+        for (int i = 0; i < series.size(); i++) if (series.fileName(i).equals(name)) return i;
+        throw new InputRejected(boardFile, "the outline is marked on frame '" + name + "', which is not in the series "
+                + series.folder(), "mark the outline on a frame of this series (risetrace board)");
+    }
+}

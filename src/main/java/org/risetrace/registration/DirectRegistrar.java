@@ -23,7 +23,15 @@ final class DirectRegistrar implements Registrar {
         final DirectAligner aligner = new DirectAligner();
         FeatureSet.Matcher matcher;
         Homography previous;
+        /** The last frame graded ok on this thread and its reference-to-frame mapping (for chaining). */
+        Frame lastGood;
+        Homography lastGoodRefToFrame;
+        DirectRegistrar chain;
+        String chainName;
     }
+
+    /** Whether frames that no longer match the reference may be registered through the last ok frame. */
+    private final boolean mayChain;
 
     /** Quality of one candidate mapping (reference to frame). */
     record Grade(Homography refToFrame, RegistrationStatus status, String reason, double similarity, double rmsPx,
@@ -36,6 +44,11 @@ final class DirectRegistrar implements Registrar {
     }
 
     DirectRegistrar(ReferenceModel ref, RegistrationConfig config) {
+        this(ref, config, true);
+    }
+
+    private DirectRegistrar(ReferenceModel ref, RegistrationConfig config, boolean mayChain) {
+        this.mayChain = mayChain;
         this.ref = ref;
         this.config = config;
         this.workspace = ThreadLocal.withInitial(Workspace::new);
@@ -83,6 +96,13 @@ final class DirectRegistrar implements Registrar {
                 Homography f = ws.matcher.match(ref.features, ws.pyramid.bandPass[0], ref.width, ref.height, inl);
                 if (f != null && plausibility(f) == null) best = attempt(ws, f, fast, best);
             }
+            if (mayChain && (best == null || best.rank() < 2) && ws.lastGood != null) {
+                FrameRegistration chained = throughLastGood(ws, frame);
+                if (chained != null && chained.status() == RegistrationStatus.OK) {
+                    remember(ws, frame, chained.boardToFrame().compose(ref.boardToReference.inverse()));
+                    return chained;
+                }
+            }
             if (best == null) return failed(frame, "no mapping found: nothing in the frame matches the reference");
             return finish(frame, ws, best);
         } catch (RuntimeException e) {
@@ -115,9 +135,37 @@ final class DirectRegistrar implements Registrar {
         ws.aligner.model = model;
         Homography h = ws.aligner.align(ref, ws.pyramid, start, fromLevel);
         if (h == null) return null;
-        Grade gg = evaluate(ws.pyramid, h, ws.aligner.converged);
-        if (System.getenv("RT_DEBUG") != null) System.out.println("  attempt model " + model + " from " + fromLevel + ": " + gg.status() + " sim " + gg.similarity() + " rms " + gg.rmsPx() + " inl " + gg.inliers() + " " + gg.reason() + " H " + h);
-        return gg;
+        return evaluate(ws.pyramid, h, ws.aligner.converged);
+    }
+
+    /**
+     * Parts that heat change the picture until the reference no longer matches (texture from emissivity contrast
+     * fades and inverts as a surface passes the reflected temperature). Such a frame is registered to the last
+     * frame graded ok on this thread, which shares most of the heating, and the two mappings are composed; each
+     * link adds its own small error, so chains are only used when the direct mapping did not grade ok.
+     */
+    private FrameRegistration throughLastGood(Workspace ws, Frame frame) {
+        String name = ws.lastGood.fileName();
+        if (ws.chain == null || !name.equals(ws.chainName)) {
+            Homography boardToLast = ws.lastGoodRefToFrame.compose(ref.boardToReference).normalized();
+            double[][] corners = Homographies.boardCorners(ref.board, boardToLast);
+            org.risetrace.board.Board b = new org.risetrace.board.Board(ref.board.name(), ref.board.sizeMm(),
+                    new org.risetrace.board.Outline(name, corners, null), ref.board.parts(), ref.board.ambient());
+            try {
+                ws.chain = new DirectRegistrar(ReferenceModel.prepare(ws.lastGood, b, config.withMethod("search")),
+                        config.withMethod("auto"), false);
+            } catch (RuntimeException e) {
+                return null;
+            }
+            ws.chainName = name;
+        }
+        return ws.chain.register(frame);
+    }
+
+    private void remember(Workspace ws, Frame frame, Homography refToFrame) {
+        ws.previous = refToFrame;
+        ws.lastGood = frame;
+        ws.lastGoodRefToFrame = refToFrame;
     }
 
     private FrameRegistration finish(Frame frame, Workspace ws, Grade g) {
@@ -125,6 +173,7 @@ final class DirectRegistrar implements Registrar {
             return new FrameRegistration(frame.fileName(), frame.tSeconds(), RegistrationStatus.FAILED, g.reason(),
                     null, null, g.inliers(), g.rmsPx(), g.similarity());
         ws.previous = g.refToFrame();
+        if (g.status() == RegistrationStatus.OK) remember(ws, frame, g.refToFrame());
         Homography boardToFrame = g.refToFrame().compose(ref.boardToReference).normalized();
         return new FrameRegistration(frame.fileName(), frame.tSeconds(), g.status(), g.reason(), boardToFrame,
                 Homographies.boardCorners(ref.board, boardToFrame), g.inliers(), g.rmsPx(), g.similarity());

@@ -30,7 +30,7 @@ final class DirectAligner {
             ensure(lv.n);
             int params = Math.min(model, (l == ref.levels - 1 && l >= 2) ? 6 : 8);
             double[] hl = Pyramid.toLevel(h, l);
-            int maxIter = l == 0 ? 15 : 25;
+            int maxIter = l == 0 ? 10 : 20;
             double tol = l == 0 ? 0.02 : 0.05;
             boolean settled = false;
             for (int it = 0; it < maxIter; it++) {

@@ -103,4 +103,34 @@ public final class FootprintSampler {
         int hi = Math.min(n - 1, lo + 1);
         return values[lo] + (h - lo) * (values[hi] - values[lo]);
     }
+
+    /**
+     * How far part p's 95th percentile moves when the sampling grid moves by half a board pixel, in K: the largest
+     * |S(half shift) - S| over half-pixel shifts left, right, up and down of the given raster (the baseline mean),
+     * a half-pixel shift by bilinear interpolation being the mean of a pixel and its neighbour. Bilinear resampling
+     * of a sharp detail (a reflective termination, a small bright package) loses more or less of its peak with the
+     * sub-pixel phase of the grid, so camera drift alone can move a small part's reading by this much.
+     */
+    public double halfPixelSensitivity(float[] celsius, int p) {
+        double s0 = shifted(celsius, p, 0, 0), worst = 0;
+        if (!Double.isFinite(s0)) return 0;
+        int[][] d = {{1, 0}, {-1, 0}, {0, 1}, {0, -1}};
+        for (int[] dd : d) {
+            double v = shifted(celsius, p, dd[0], dd[1]);
+            if (Double.isFinite(v)) worst = Math.max(worst, Math.abs(v - s0));
+        }
+        return worst;
+    }
+
+    /** p95 over the footprint of the raster shifted by half a pixel towards (dx, dy) (bilinear: neighbour mean). */
+    private double shifted(float[] celsius, int p, int dx, int dy) {
+        int n = 0;
+        for (int k : indices[p]) {
+            int x = k % width + dx, y = k / width + dy;
+            if (x < 0 || y < 0 || x >= width || y >= height) continue;
+            float v = 0.5f * (celsius[k] + celsius[y * width + x]);
+            if (!Float.isNaN(v)) buffer[n++] = v;
+        }
+        return n == 0 ? Double.NaN : percentile(buffer, n, 0.95);
+    }
 }

@@ -55,4 +55,31 @@ public record LineFit(double intercept, double slope, double slopeSe, double res
         double sigma = Math.sqrt(s2);
         return new LineFit(a, b, se, sigma, n);
     }
+
+    /**
+     * Lag-1 autocorrelation of this fit's residuals over the same points (0 when fewer than 4). Used to widen the
+     * slope's error for serially correlated noise: with AR(1) residuals of correlation r the effective number of
+     * independent points is n (1 - r) / (1 + r) (Bence 1995, Can. J. Fish. Aquat. Sci. 52; Santer et al. 2000,
+     * J. Geophys. Res. 105), so the standard error grows by sqrt((1 + r) / (1 - r)).
+     */
+    public double residualLag1(double[] t, double[] y, double[] weight, int from, int to) {
+        double prev = Double.NaN, num = 0, den = 0;
+        int m = 0;
+        for (int i = from; i < to; i++) {
+            double w = weight == null ? 1 : weight[i];
+            if (!(w > 0) || !Double.isFinite(y[i])) continue;
+            double r = y[i] - intercept - slope * t[i];
+            den += r * r;
+            if (Double.isFinite(prev)) num += r * prev;
+            prev = r;
+            m++;
+        }
+        return m < 4 || den <= 0 ? 0 : num / den;
+    }
+
+    /** The same fit with its slope error widened for AR(1) residuals (r clipped to [0, 0.8]). */
+    public LineFit widenedForSerialCorrelation(double lag1) {
+        double r = Math.max(0, Math.min(0.8, lag1));
+        return new LineFit(intercept, slope, slopeSe * Math.sqrt((1 + r) / (1 - r)), residualSigma, n);
+    }
 }

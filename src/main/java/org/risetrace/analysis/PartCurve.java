@@ -36,6 +36,16 @@ public record PartCurve(double[] riseK, double baselineC, double noiseK, Double 
      */
     public static PartCurve measure(double[] tS, double[] partC, double[] ambientC, double[] weight, int baseline,
                                     double tStartS, AnalysisOptions o) {
+        return measure(tS, partC, ambientC, weight, baseline, tStartS, o.rateWindowS(), 0, o);
+    }
+
+    /**
+     * @param windowS          rate window length (at least {@code minRateFrames} frames are used)
+     * @param positionErrorK   how far the part's reading can move through registration and resampling alone; the
+     *                         rate's error gets a floor of positionErrorK / (window duration), added in quadrature
+     */
+    public static PartCurve measure(double[] tS, double[] partC, double[] ambientC, double[] weight, int baseline,
+                                    double tStartS, double windowS, double positionErrorK, AnalysisOptions o) {
         int n = tS.length;
         baseline = Math.max(1, Math.min(baseline, n));
         double[] amb = fillAmbient(ambientC, n, baseline);
@@ -58,10 +68,18 @@ public record PartCurve(double[] riseK, double baselineC, double noiseK, Double 
         int from = 0;
         while (from < n && tS[from] <= tStartS) from++;
         int to = from;
-        while (to < n && (tS[to] <= tStartS + o.rateWindowS() || to - from < o.minRateFrames())) to++;
+        while (to < n && (tS[to] <= tStartS + windowS || to - from < o.minRateFrames())) to++;
         LineFit rate = LineFit.fit(tS, rise, weight, from, to, noise);
+        if (rate != null) rate = rate.widenedForSerialCorrelation(rate.residualLag1(tS, rise, weight, from, to));
+        if (rate != null && positionErrorK > 0 && to - 1 > from) {
+            double floor = positionErrorK / (tS[to - 1] - tS[from]);
+            rate = new LineFit(rate.intercept(), rate.slope(), Math.hypot(rate.slopeSe(), floor), rate.residualSigma(), rate.n());
+        }
 
         FirstOrderFit fit = onset == null ? null : FirstOrderFit.fit(tS, rise, tStartS);
+        // a curve still straight at the end of the series does not determine a time constant: no fit then
+        double span = tS[n - 1] - tStartS;
+        if (fit != null && (fit.tauS() > 5 * span || fit.tauSe() > fit.tauS())) fit = null;
 
         int last = Math.max(baseline, n - o.lastFrames());
         double end = meanFinite(rise, Math.min(last, n - 1), n);

@@ -129,6 +129,13 @@ public final class RiseMaps {
         return out;
     }
 
+    /** The baseline mean per pixel (NaN where no baseline frame covered it). */
+    public float[] baselineMean() {
+        float[] out = new float[baseSum.length];
+        for (int k = 0; k < out.length; k++) out[k] = baseCount[k] == 0 ? Float.NaN : (float) (baseSum[k] / baseCount[k]);
+        return out;
+    }
+
     /** Seconds from the injection start at which each pixel's rise began; NaN where it never did. */
     public BoardMap onsetMap() {
         return new BoardMap(width, height, pxPerMm, onsetS.clone(), "s");

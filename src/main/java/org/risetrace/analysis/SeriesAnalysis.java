@@ -42,6 +42,8 @@ public final class SeriesAnalysis {
     private BoardRaster lastRaster;
     private double framePxPerMm = Double.NaN;
     private double lastT = Double.NEGATIVE_INFINITY;
+    private double windowUsedS = Double.NaN;
+
 
     public SeriesAnalysis(Board board, AnalysisOptions options, BaselinePlan plan, EmissivityModel emissivity,
                           Context context) {
@@ -94,6 +96,21 @@ public final class SeriesAnalysis {
         return Math.sqrt(Math.abs(jxx * jyy - jxy * jyx));
     }
 
+    /** Half-rise time of the most-risen part with an onset, as a window length; rateWindowS when none. */
+    static double rateWindow(double[] t, PartCurve[] curves, AnalysisOptions o, double tStartS) {
+        PartCurve best = null;
+        for (PartCurve c : curves)
+            if (c.onsetS() != null && Double.isFinite(c.endRiseK()) && (best == null || c.endRiseK() > best.endRiseK())) best = c;
+        if (best == null || !(best.endRiseK() > 0)) return o.rateWindowS();
+        double tHalf = Double.NaN;
+        for (int i = 0; i < t.length; i++)
+            if (t[i] >= best.onsetS() && best.riseK()[i] >= 0.5 * best.endRiseK()) {
+                tHalf = t[i];
+                break;
+            }
+        return Double.isFinite(tHalf) ? Math.min(o.rateWindowS(), Math.max(tHalf - tStartS, 0)) : o.rateWindowS();
+    }
+
     /** Measures, ranks and decides. */
     public Analysis finish() {
         records.sort(Comparator.comparingDouble(FrameRecord::tS));
@@ -120,11 +137,11 @@ public final class SeriesAnalysis {
         double minSepPx = Math.max(2.0, 1.0 * maps.pxPerMm());
         List<Hotspot> hotspots = Hotspots.find(sm, options.hotspotKSigma(), minSepPx, options.maxHotspots(), parts);
 
-        // per part
-        List<Verdicts.Candidate> candidates = new ArrayList<>();
-        PartCurve[] curves = new PartCurve[np];
+        // per part: object temperatures, weights, how far registration and resampling alone can move each reading
+        float[] baseMean = maps.baselineMean();
         EmissivityModel.Emissivity[] eps = new EmissivityModel.Emissivity[np];
-        double[] meanValid = new double[np], rateSe = new double[np], mapPeak = new double[np];
+        double[][] ys = new double[np][], ws = new double[np][];
+        double[] meanValid = new double[np], positionErrorK = new double[np];
         for (int p = 0; p < np; p++) {
             Part part = parts.get(p);
             eps[p] = emissivity.forMaterial(part.material());
@@ -141,8 +158,28 @@ public final class SeriesAnalysis {
                 // weakly registered frames and partly visible footprints count less in the rate fit
                 w[i] = valid * (weak.get(i) ? 0.5 : 1.0);
             }
+            ys[p] = y;
+            ws[p] = w;
             meanValid[p] = validSum / n;
-            curves[p] = PartCurve.measure(t, y, amb, w, baselineUsed, plan.tStartS(), options);
+            positionErrorK[p] = footprints.halfPixelSensitivity(baseMean, p) / eps[p].value();
+        }
+        // the rate window: up to the time the most-risen part reached half its end rise (a first-order curve is
+        // still nearly straight there, at 0.69 tau), at most rateWindowS
+        PartCurve[] curves = new PartCurve[np];
+        for (int p = 0; p < np; p++)
+            curves[p] = PartCurve.measure(t, ys[p], amb, ws[p], baselineUsed, plan.tStartS(), options.rateWindowS(),
+                    positionErrorK[p], options);
+        double windowS = rateWindow(t, curves, options, plan.tStartS());
+        if (windowS < options.rateWindowS())
+            for (int p = 0; p < np; p++)
+                curves[p] = PartCurve.measure(t, ys[p], amb, ws[p], baselineUsed, plan.tStartS(), windowS,
+                        positionErrorK[p], options);
+        this.windowUsedS = windowS;
+
+        List<Verdicts.Candidate> candidates = new ArrayList<>();
+        double[] rateSe = new double[np];
+        for (int p = 0; p < np; p++) {
+            Part part = parts.get(p);
             LineFit rate = curves[p].rate();
             // the rise in object temperature scales about as 1/e, so the rate's relative error grows by de/e
             rateSe[p] = rate == null ? Double.NaN
@@ -152,7 +189,6 @@ public final class SeriesAnalysis {
                 float v = sm.map().values()[k];
                 if (!Float.isNaN(v) && (Float.isNaN(peak) || v > peak)) peak = v;
             }
-            mapPeak[p] = peak;
             candidates.add(new Verdicts.Candidate(part.ref(), rate == null ? null : rate.slope(),
                     rate == null ? null : rateSe[p], curves[p].onsetS() != null, peak));
         }
@@ -200,6 +236,8 @@ public final class SeriesAnalysis {
         params.put("baseline_frames_used", baselineUsed);
         params.put("ambient_source", context.ambientSource());
         if (maps != null) params.put("board_px_per_mm", maps.pxPerMm());
+        params.put("rate_window_used_s", finite(windowUsedS));
+        params.put("position_error", "half-pixel resampling sensitivity of each footprint on the baseline");
         if (maps != null) params.put("pixel_noise_k", finite(maps.pixelSigma()));
         return new AnalysisResult(AnalysisResult.SCHEMA, "risetrace", context.version(), Instant.now().toString(),
                 context.series(), context.boardFile(), context.profile(), params, context.injection(), v, parts,

@@ -12,6 +12,7 @@ import java.io.IOException;
 import java.io.InputStream;
 import java.nio.file.Files;
 import java.nio.file.Path;
+import java.util.ArrayList;
 import java.util.Collections;
 import java.util.Iterator;
 import java.util.LinkedHashMap;
@@ -22,8 +23,9 @@ import java.util.Map;
 import java.util.Set;
 
 /**
- * The materials table: a JSON array of {@code {name, emissivity, uncertainty, source}} objects. The table bundled
- * with the tool is {@code calibration/materials.json}; a user may load their own file.
+ * The materials table: a JSON array of {@code {name, emissivity, uncertainty, source}} objects, each with an
+ * optional {@code aliases} list of other names for it (short names such as "epoxy", other spellings). The table
+ * bundled with the tool is {@code calibration/materials.json}; a user may load their own file.
  */
 public final class Materials {
     public static final String RESOURCE = "/calibration/materials.json";
@@ -31,10 +33,12 @@ public final class Materials {
     private static final ObjectMapper JSON = new ObjectMapper();
     private static volatile Materials bundled;
 
-    private final Map<String, Material> byKey;   // normalised name -> material, in file order
+    private final Map<String, Material> byKey;   // normalised name or alias -> material
+    private final Set<String> names;             // names and aliases as written, in file order
 
-    private Materials(Map<String, Material> byKey) {
+    private Materials(Map<String, Material> byKey, Set<String> names) {
         this.byKey = Collections.unmodifiableMap(byKey);
+        this.names = Collections.unmodifiableSet(names);
     }
 
     /** The bundled table (read once). */
@@ -66,7 +70,7 @@ public final class Materials {
     public Material get(String name) {
         Material m = name == null ? null : byKey.get(key(name));
         if (m == null)
-            throw new InputRejected(null, "unknown material '" + name + "'", "known materials: " + String.join(", ", names()));
+            throw new InputRejected(null, "unknown material '" + name + "'", "known materials: " + String.join(", ", names));
         return m;
     }
 
@@ -75,11 +79,14 @@ public final class Materials {
         return name != null && byKey.containsKey(key(name));
     }
 
-    /** Material names as written in the table, in table order. */
+    /** Every name a board file may use, as written in the table (names and their aliases), in table order. */
     public Set<String> names() {
-        Set<String> s = new LinkedHashSet<>();
-        for (Material m : byKey.values()) s.add(m.name());
-        return Collections.unmodifiableSet(s);
+        return names;
+    }
+
+    /** The materials themselves, once each, in table order. */
+    public List<Material> materials() {
+        return List.copyOf(new LinkedHashSet<>(byKey.values()));
     }
 
     static String key(String name) {
@@ -87,9 +94,11 @@ public final class Materials {
     }
 
     private static final List<String> FIELDS = List.of("name", "emissivity", "uncertainty", "source");
+    private static final List<String> OPTIONAL = List.of("aliases");
 
     private static Materials parse(InputStream in, Path file) throws IOException {
         Map<String, Material> byKey = new LinkedHashMap<>();
+        Set<String> names = new LinkedHashSet<>();
         try (JsonParser p = JSON.getFactory().createParser(in)) {
             if (p.nextToken() != JsonToken.START_ARRAY)
                 throw new InputRejected(file, "line " + line(p.currentTokenLocation())
@@ -98,11 +107,15 @@ public final class Materials {
                 int line = line(p.currentTokenLocation());
                 JsonNode node = JSON.readTree(p);
                 Material m = material(node, file, line);
-                String k = key(m.name());
-                if (byKey.containsKey(k))
-                    throw new InputRejected(file, "line " + line + ", field 'name': material '" + m.name()
-                            + "' is listed twice");
-                byKey.put(k, m);
+                List<String> keys = new ArrayList<>(List.of(m.name()));
+                keys.addAll(aliases(node, file, line));
+                for (String name : keys) {
+                    if (byKey.containsKey(key(name)))
+                        throw new InputRejected(file, "line " + line + ": material name '" + name
+                                + "' is listed twice");
+                    byKey.put(key(name), m);
+                    names.add(name);
+                }
             }
             if (p.currentToken() != JsonToken.END_ARRAY)
                 throw new InputRejected(file, "line " + line(p.currentTokenLocation())
@@ -111,16 +124,26 @@ public final class Materials {
             throw new InputRejected(file, "malformed JSON at line " + line(e.getLocation()) + ": " + e.getOriginalMessage());
         }
         if (byKey.isEmpty()) throw new InputRejected(file, "the materials file lists no materials");
-        return new Materials(byKey);
+        return new Materials(byKey, names);
+    }
+
+    private static List<String> aliases(JsonNode node, Path file, int line) {
+        JsonNode a = node.get("aliases");
+        if (a == null || a.isNull()) return List.of();
+        List<String> out = new ArrayList<>();
+        if (a.isArray()) for (JsonNode n : a) if (n.isTextual() && !n.asText().isBlank()) out.add(n.asText());
+        if (!a.isArray() || out.size() != a.size())
+            throw new InputRejected(file, "line " + line + ", field 'aliases': must be a list of names");
+        return out;
     }
 
     /** One entry, checked field by field so that the message names the field (the entry's line is the best we know). */
     private static Material material(JsonNode node, Path file, int line) {
         for (Iterator<String> it = node.fieldNames(); it.hasNext(); ) {
             String f = it.next();
-            if (!FIELDS.contains(f))
+            if (!FIELDS.contains(f) && !OPTIONAL.contains(f))
                 throw new InputRejected(file, "line " + line + ": unknown field '" + f + "'",
-                        "fields are " + String.join(", ", FIELDS));
+                        "fields are " + String.join(", ", FIELDS) + " and optional aliases");
         }
         for (String f : FIELDS)
             if (!node.hasNonNull(f)) throw new InputRejected(file, "line " + line + ", field '" + f + "': missing");

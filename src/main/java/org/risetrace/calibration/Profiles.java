@@ -78,15 +78,42 @@ public final class Profiles {
     }
 
     private static Profile parse(InputStream in, Path file) throws IOException {
+        byte[] json = in.readAllBytes();
         try {
-            return JSON.readValue(in, Profile.class);
+            Profile p = JSON.readValue(json, Profile.class);
+            if (p == null) throw new InputRejected(file, "the profile is empty (null)", "write a JSON object {...}");
+            return p;
         } catch (UnrecognizedPropertyException e) {
-            throw new InputRejected(file, "unknown field '" + e.getPropertyName() + "' at line "
-                    + e.getLocation().getLineNr() + ", column " + e.getLocation().getColumnNr());
+            String at = fieldLocation(json, e.getPropertyName());
+            if (at.isEmpty()) at = " at line " + e.getLocation().getLineNr() + ", column " + e.getLocation().getColumnNr();
+            throw new InputRejected(file, "unknown field '" + e.getPropertyName() + "'" + at,
+                    "known fields: name, description, encoding, gain, offset, unit, span_c, netd_k, band_um, "
+                            + "default_emissivity");
         } catch (JsonProcessingException e) {
             throw new InputRejected(file, "malformed JSON at line " + e.getLocation().getLineNr() + ", column "
                     + e.getLocation().getColumnNr() + ": " + e.getOriginalMessage());
         }
+    }
+
+    /**
+     * Line and column of a field name in JSON text. Jackson reports an unknown field of a record where the
+     * record's object ends, so the message looks the name up in the text instead.
+     */
+    static String fieldLocation(byte[] json, String field) {
+        String text = new String(json, java.nio.charset.StandardCharsets.UTF_8);
+        java.util.regex.Matcher m = java.util.regex.Pattern.compile("\"" + java.util.regex.Pattern.quote(field)
+                + "\"\\s*:").matcher(text);
+        if (!m.find()) return "";
+        int line = 1, col = 1;
+        for (int i = 0; i < m.start(); i++) {
+            if (text.charAt(i) == '\n') {
+                line++;
+                col = 1;
+            } else {
+                col++;
+            }
+        }
+        return " at line " + line + ", column " + col;
     }
 
     private static Profile validate(Profile p, Path file) {

@@ -49,8 +49,9 @@ public final class SampleMapping {
     public static float[] toCelsius(Path file, RawSamples s, Profile p, double[] spanC) {
         String enc = p.encoding().toLowerCase(Locale.ROOT);
         checkFits(file, s, p, enc);
+        if (s.kind() == RawSamples.Kind.COUNTS) return linearCounts(file, s, p);
         float[] out = switch (s.kind()) {
-            case COUNTS -> linearCounts(s.u16(), p);
+            case COUNTS -> throw new AssertionError();
             case GREY -> span(file, s, p, spanC);
             case FLOAT, TEXT -> enc.equals("linear") ? linearValues(s.values(), p) : temperatures(s.values(), p);
         };
@@ -96,10 +97,20 @@ public final class SampleMapping {
         });
     }
 
-    private static float[] linearCounts(short[] counts, Profile p) {
+    /** Table look-up per count; the range check needs only the extreme counts, the mapping being linear. */
+    private static float[] linearCounts(Path file, RawSamples s, Profile p) {
         float[] lut = lut(p);
+        short[] counts = s.u16();
         float[] out = new float[counts.length];
-        for (int i = 0; i < counts.length; i++) out[i] = lut[counts[i] & 0xFFFF];
+        int lo = 65535, hi = 0;
+        for (int i = 0; i < counts.length; i++) {
+            int c = counts[i] & 0xFFFF;
+            out[i] = lut[c];
+            lo = Math.min(lo, c);
+            hi = Math.max(hi, c);
+        }
+        float a = lut[lo], b = lut[hi];
+        if (Math.min(a, b) < (float) ABSOLUTE_ZERO_C || Math.max(a, b) > MAX_CELSIUS) checkRange(file, out, s.width());
         return out;
     }
 

@@ -28,12 +28,16 @@ public final class Sidecars {
 
     public static Sidecar load(Path file) {
         Sidecar s;
+        byte[] json = null;
         try {
-            s = JSON.readValue(Files.readAllBytes(file), Sidecar.class);
+            json = Files.readAllBytes(file);
+            s = JSON.readValue(json, Sidecar.class);
         } catch (NoSuchFileException e) {
             throw new InputRejected(file, "sidecar file not found");
         } catch (UnrecognizedPropertyException e) {
-            throw new InputRejected(file, "unknown field '" + e.getPropertyName() + "'" + at(e.getLocation()),
+            String where = fieldLocation(json, e.getPropertyName());
+            throw new InputRejected(file, "unknown field '" + e.getPropertyName() + "'"
+                    + (where.isEmpty() ? at(e.getLocation()) : where),
                     "known fields: " + e.getKnownPropertyIds());
         } catch (JsonProcessingException e) {
             throw new InputRejected(file, "malformed JSON" + at(e.getLocation()) + ": " + e.getOriginalMessage());
@@ -46,6 +50,27 @@ public final class Sidecars {
 
     private static String at(JsonLocation loc) {
         return loc == null ? "" : " at line " + loc.getLineNr() + ", column " + loc.getColumnNr();
+    }
+
+    /**
+     * Line and column of a field name in JSON text. Jackson reports an unknown field of a record where the
+     * record's object ends, so the message looks the name up in the text instead.
+     */
+    static String fieldLocation(byte[] json, String field) {
+        String text = new String(json, java.nio.charset.StandardCharsets.UTF_8);
+        java.util.regex.Matcher m = java.util.regex.Pattern.compile("\"" + java.util.regex.Pattern.quote(field)
+                + "\"\\s*:").matcher(text);
+        if (!m.find()) return "";
+        int line = 1, col = 1;
+        for (int i = 0; i < m.start(); i++) {
+            if (text.charAt(i) == '\n') {
+                line++;
+                col = 1;
+            } else {
+                col++;
+            }
+        }
+        return " at line " + line + ", column " + col;
     }
 
     static Sidecar validate(Sidecar s, Path file) {

@@ -14,12 +14,25 @@ final class TiffHeader {
     static final int TAG_PREDICTOR = 317;
     static final int TAG_TILE_WIDTH = 322;
     static final int TAG_SAMPLE_FORMAT = 339;
+    static final int TAG_IMAGE_LENGTH = 257;
+    static final int TAG_SAMPLES_PER_PIXEL = 277;
+    static final int TAG_ROWS_PER_STRIP = 278;
+    static final int TAG_PLANAR_CONFIGURATION = 284;
+    static final int TAG_TILE_LENGTH = 323;
+    static final int TAG_COMPRESSION = 259;
+    static final int TAG_PHOTOMETRIC = 262;
+    static final int TAG_STRIP_OFFSETS = 273;
+    static final int TAG_STRIP_BYTE_COUNTS = 279;
+    static final int TAG_TILE_OFFSETS = 324;
+    static final int TAG_TILE_BYTE_COUNTS = 325;
 
     final boolean littleEndian;
     /** tag -> first value, for SHORT (3) and LONG (4) entries. */
     private final Map<Integer, Long> values = new HashMap<>();
     /** tag -> byte position of the entry's value field. */
     private final Map<Integer, Integer> valuePositions = new HashMap<>();
+    /** tag -> {type, count} of SHORT/LONG entries. */
+    private final Map<Integer, long[]> shapes = new HashMap<>();
 
     private TiffHeader(boolean littleEndian) {
         this.littleEndian = littleEndian;
@@ -42,8 +55,32 @@ final class TiffHeader {
             else if (type == 4) h.values.put(tag, h.u32(b, e + 8));
             else continue;
             h.valuePositions.put(tag, e + 8);
+            h.shapes.put(tag, new long[]{type, count});
         }
         return h;
+    }
+
+    boolean has(int tag) {
+        return values.containsKey(tag);
+    }
+
+    /**
+     * All values of a SHORT/LONG entry: in the entry when they fit in 4 bytes, else at the offset it holds
+     * (TIFF 6.0 section 2). Null when the tag is absent or its values lie outside the file.
+     */
+    long[] values(byte[] b, int tag) {
+        long[] shape = shapes.get(tag);
+        if (shape == null) return null;
+        int size = shape[0] == 3 ? 2 : 4;
+        long count = shape[1];
+        long start = count * size <= 4 ? valuePositions.get(tag) : u32(b, valuePositions.get(tag));
+        if (count > Integer.MAX_VALUE / 4 || start + count * size > b.length) return null;
+        long[] out = new long[(int) count];
+        for (int i = 0; i < count; i++) {
+            int p = (int) start + i * size;
+            out[i] = size == 2 ? u16(b, p) : u32(b, p);
+        }
+        return out;
     }
 
     long value(int tag, long fallback) {

@@ -30,19 +30,36 @@ final class Cielab {
         return true;
     }
 
-    /** 0xRRGGBB; when (a, b) falls outside the gamut its chroma shrinks (same L*, same hue) until it fits. */
-    static int toSrgbInGamut(double l, double a, double b) {
-        double[] rgb = toLinearSrgb(l, a, b);
-        if (!inGamut(rgb)) {
-            double lo = 0, hi = 1;
-            for (int i = 0; i < 40; i++) {
-                double mid = (lo + hi) / 2;
-                if (inGamut(toLinearSrgb(l, a * mid, b * mid))) lo = mid; else hi = mid;
-            }
-            rgb = toLinearSrgb(l, a * lo, b * lo);
+    /** The colour itself when sRGB can show it, else the same L* and hue with the largest chroma that fits. */
+    static double[] intoGamut(double l, double a, double b) {
+        if (inGamut(toLinearSrgb(l, a, b))) return new double[]{l, a, b};
+        double lo = 0, hi = 1;
+        for (int i = 0; i < 40; i++) {
+            double mid = (lo + hi) / 2;
+            if (inGamut(toLinearSrgb(l, a * mid, b * mid))) lo = mid; else hi = mid;
         }
+        return new double[]{l, a * lo, b * lo};
+    }
+
+    /** 0xRRGGBB of a colour inside the gamut (see {@link #intoGamut}). */
+    static int toSrgb(double[] lab) {
+        double[] rgb = toLinearSrgb(lab[0], lab[1], lab[2]);
         int r = encode(rgb[0]), g = encode(rgb[1]), bl = encode(rgb[2]);
         return (r << 16) | (g << 8) | bl;
+    }
+
+    /**
+     * CIE94 colour difference (CIE 116-1995, graphic-arts weights kL = 1, K1 = 0.045, K2 = 0.015) between two
+     * nearby colours, with the chroma and hue terms scaled by {@code w} (1 = CIE94); the length element when
+     * spacing a map's colours evenly.
+     */
+    static double deltaE94(double[] p, double[] q, double w) {
+        double c1 = Math.hypot(p[1], p[2]), c2 = Math.hypot(q[1], q[2]);
+        double dl = p[0] - q[0], dc = c1 - c2;
+        double da = p[1] - q[1], db = p[2] - q[2];
+        double dh2 = Math.max(0, da * da + db * db - dc * dc);
+        double sc = 1 + 0.045 * c1, sh = 1 + 0.015 * c1;
+        return Math.sqrt(dl * dl + w * ((dc / sc) * (dc / sc) + dh2 / (sh * sh)));
     }
 
     /** IEC 61966-2-1 sRGB transfer function, linear [0, 1] to an 8-bit code. */

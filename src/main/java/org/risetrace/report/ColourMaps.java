@@ -27,18 +27,42 @@ public enum ColourMaps {
     private final String word;
     private final int[] lut = new int[SIZE];
 
+    /** Dense samples of the path before it is spaced evenly. */
+    private static final int DENSE = 4096;
+    /**
+     * Weight of the chroma and hue terms in the spacing metric. 0 spaces by L* alone (L* steps even, total colour
+     * difference steps vary by ~1.45x for these paths), 1 by full CIE94 (the reverse, L* steps vary by ~1.5x); 0.5
+     * keeps both within ~1.3x (measured by ColourMapsTest).
+     */
+    private static final double CHROMA_WEIGHT = 0.5;
+
     ColourMaps(String word, double[][] labKnots) {
         this.word = word;
         int n = labKnots.length;
-        for (int k = 0; k < SIZE; k++) {
-            double t = k / (double) (SIZE - 1);
+        // 1. the path: L* linear in the parameter, a*, b* on the spline, pulled into the sRGB gamut
+        double[][] path = new double[DENSE][];
+        for (int k = 0; k < DENSE; k++) {
+            double t = k / (double) (DENSE - 1);
             double l = labKnots[0][0] + t * (labKnots[n - 1][0] - labKnots[0][0]);
             double s = t * (n - 1);
             int seg = Math.min((int) Math.floor(s), n - 2);
             double u = s - seg;
-            double a = catmullRom(labKnots, seg, u, 1);
-            double b = catmullRom(labKnots, seg, u, 2);
-            lut[k] = Cielab.toSrgbInGamut(l, a, b);
+            path[k] = Cielab.intoGamut(l, catmullRom(labKnots, seg, u, 1), catmullRom(labKnots, seg, u, 2));
+        }
+        // 2. even colour difference per table step: resample the path at equal CIE94 arc length, so a step
+        // anywhere on the scale looks about as large as a step elsewhere (the meaning of perceptually uniform);
+        // chroma and hue count half, so lightness, which carries the order, stays close to even steps too
+        double[] arc = new double[DENSE];
+        for (int k = 1; k < DENSE; k++) arc[k] = arc[k - 1] + Cielab.deltaE94(path[k - 1], path[k], CHROMA_WEIGHT);
+        int j = 0;
+        for (int k = 0; k < SIZE; k++) {
+            double target = arc[DENSE - 1] * k / (SIZE - 1);
+            while (j < DENSE - 2 && arc[j + 1] < target) j++;
+            double span = arc[j + 1] - arc[j];
+            double w = span > 0 ? Math.max(0, Math.min(1, (target - arc[j]) / span)) : 0;
+            double[] lab = new double[3];
+            for (int c = 0; c < 3; c++) lab[c] = path[j][c] + w * (path[j + 1][c] - path[j][c]);
+            lut[k] = Cielab.toSrgb(lab);
         }
     }
 

@@ -57,7 +57,7 @@ public final class PartsCsv {
         List<Map<Double, Double>> byTime = new ArrayList<>();
         for (RiseCurve c : curves) {
             Map<Double, Double> m = new HashMap<>();
-            int n = Math.min(c.tS().length, c.riseK().length);
+            int n = c.tS() == null || c.riseK() == null ? 0 : Math.min(c.tS().length, c.riseK().length);
             for (int i = 0; i < n; i++) {
                 if (Double.isNaN(c.tS()[i])) continue;
                 times.add(c.tS()[i]);

@@ -59,6 +59,15 @@ final class Plots {
     private static final Font TICK_FONT = new Font(Font.SANS_SERIF, Font.PLAIN, 12);
     private static final Font LABEL_FONT = new Font(Font.SANS_SERIF, Font.BOLD, 13);
     private static final Color GRID = new Color(0xdddddd);
+    /** Where a map has no value: grey hatching, which no colour of a map can be mistaken for. */
+    private static final java.awt.Paint NO_VALUE = hatch();
+
+    private static java.awt.Paint hatch() {
+        java.awt.image.BufferedImage tile = new java.awt.image.BufferedImage(8, 8, java.awt.image.BufferedImage.TYPE_INT_RGB);
+        for (int y = 0; y < 8; y++)
+            for (int x = 0; x < 8; x++) tile.setRGB(x, y, ((x + y) % 8 < 2) ? 0xa8a8a8 : 0xe4e4e4);
+        return new java.awt.TexturePaint(tile, new Rectangle2D.Double(0, 0, 8, 8));
+    }
 
     private Plots() { }
 
@@ -135,7 +144,7 @@ final class Plots {
         renderer.setPaintScale(scale);
 
         XYPlot plot = new XYPlot(data, xAxis, yAxis, renderer);
-        plot.setBackgroundPaint(new Color(0xd8d8d8));
+        plot.setBackgroundPaint(NO_VALUE);
         plot.setDomainGridlinesVisible(false);
         plot.setRangeGridlinesVisible(false);
         plot.setAxisOffset(RectangleInsets.ZERO_INSETS);
@@ -229,7 +238,7 @@ final class Plots {
             RiseCurve c = curves.get(k);
             Color colour = LINE_COLOURS[k % LINE_COLOURS.length];
             XYSeries measured = new XYSeries(c.ref() == null ? "part " + (k + 1) : c.ref(), false, true);
-            int n = Math.min(c.tS().length, c.riseK().length);
+            int n = c.tS() == null || c.riseK() == null ? 0 : Math.min(c.tS().length, c.riseK().length);
             for (int i = 0; i < n; i++)
                 if (Double.isFinite(c.tS()[i]) && Double.isFinite(c.riseK()[i])) measured.add(c.tS()[i], c.riseK()[i]);
             data.addSeries(measured);
@@ -269,8 +278,15 @@ final class Plots {
                     BasicStroke.JOIN_ROUND, 1f, new float[]{3f, 3f}, 0f));
             m.setLabel("injection on");
             m.setLabelFont(TICK_FONT);
-            m.setLabelAnchor(org.jfree.chart.ui.RectangleAnchor.TOP_RIGHT);
-            m.setLabelTextAnchor(TextAnchor.TOP_LEFT);
+            double tMax = curves.stream().filter(c -> c.tS() != null).flatMapToDouble(c -> Arrays.stream(c.tS()))
+                    .filter(Double::isFinite).max().orElse(injectionStartS);
+            double tMin = curves.stream().filter(c -> c.tS() != null).flatMapToDouble(c -> Arrays.stream(c.tS()))
+                    .filter(Double::isFinite).min().orElse(injectionStartS);
+            boolean labelLeft = injectionStartS > (tMin + tMax) / 2;  // keep the label inside the plot
+            m.setLabelAnchor(labelLeft ? org.jfree.chart.ui.RectangleAnchor.TOP_LEFT
+                    : org.jfree.chart.ui.RectangleAnchor.TOP_RIGHT);
+            m.setLabelTextAnchor(labelLeft ? TextAnchor.TOP_RIGHT : TextAnchor.TOP_LEFT);
+            m.setLabelBackgroundColor(new Color(255, 255, 255, 0));
             plot.addDomainMarker(m);
         }
         JFreeChart chart = new JFreeChart(null, JFreeChart.DEFAULT_TITLE_FONT, plot, true);
@@ -282,11 +298,12 @@ final class Plots {
     static byte[] registrationPng(List<FrameRecord> frames) {
         XYSeries ok = new XYSeries("ok / marked", true, true);
         XYSeries weak = new XYSeries("weak", true, true);
-        XYSeries failed = new XYSeries("failed (left out, drawn at 0)", true, true);
+        XYSeries failed = new XYSeries("failed (left out; at 0 when not measured)", true, true);
         XYSeriesCollection data = new XYSeriesCollection();
         for (FrameRecord f : frames) {
             if (f.registration() != null && "failed".equals(f.registration().status()) && Double.isFinite(f.tS())) {
-                failed.add(f.tS(), 0.0);
+                Double r = f.registration().rmsPx();
+                failed.add(f.tS(), r != null && Double.isFinite(r) ? r : 0.0);
                 continue;
             }
             if (f.registration() == null || f.registration().rmsPx() == null) continue;

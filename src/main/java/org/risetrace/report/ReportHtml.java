@@ -132,7 +132,7 @@ public final class ReportHtml {
                 .append("<dl class=\"facts\">\n");
         fact(h, "Series", r.series());
         fact(h, "Board file", r.board());
-        fact(h, "Analysed", r.createdUtc());
+        fact(h, "Analysed", readableTime(r.createdUtc()));
         fact(h, "Calibration profile", r.profile());
         fact(h, "Frames", frames.size() + " (" + frames.stream().filter(FrameRecord::used).count() + " used)");
         fact(h, "Tool", (r.tool() == null ? "risetrace" : r.tool()) + " " + (r.version() == null ? "" : r.version()));
@@ -160,6 +160,12 @@ public final class ReportHtml {
                 .append("<p class=\"headline\">").append(esc(headline(a))).append("</p>\n");
         if (v != null && v.status() == VerdictStatus.IDENTIFIED && v.reason() != null && !v.reason().isBlank())
             h.append("<p class=\"reason\">").append(esc(v.reason())).append("</p>\n");
+        long failedFrames = frames.stream().filter(f -> !f.used()).count();
+        if (!frames.isEmpty() && failedFrames * 5 >= frames.size())
+            h.append("<p class=\"unmarked\">").append(failedFrames).append(" of ").append(frames.size())
+                    .append(" frames could not be mapped onto the board and were left out; the answer rests on ")
+                    .append(frames.size() - failedFrames).append(frames.size() - failedFrames == 1 ? " frame." : " frames.")
+                    .append("</p>\n");
         Hotspot unmarked = unmarkedHottest(r);
         if (unmarked != null)
             h.append("<p class=\"unmarked\">").append(esc(unmarkedSentence(unmarked))).append("</p>\n");
@@ -180,7 +186,7 @@ public final class ReportHtml {
             figure(h, Plots.mapPng(g, new Plots.Shading(ColourMaps.EMBER, range[0], range[1], false,
                             "apparent temperature (\u00b0C)"), parts, null),
                     "Last frame", "The last usable frame, rectified onto the board, in apparent temperature ("
-                            + ColourMaps.EMBER.word() + " colour map: darker is cooler). Grey: outside the frame.");
+                            + ColourMaps.EMBER.word() + " colour map: darker is cooler). Hatched: outside the frame.");
         }
         BoardMap rise = a.riseMap();
         if (rise != null && hasFinite(rise.values())) {
@@ -194,6 +200,8 @@ public final class ReportHtml {
                             + (hotspots.stream().anyMatch(s -> s.ref() == null)
                             ? "; cyan rings are on no marked part." : "."));
         }
+        if (rise != null && !hasFinite(rise.values()))
+            h.append("<p class=\"blank\">Rise map: no point of the board has a rise value.</p>\n");
         BoardMap onset = a.onsetMap();
         if (onset != null && hasFinite(onset.values())) {
             double[] range = percentiles(onset.values(), 0.0, 1.0);
@@ -202,7 +210,7 @@ public final class ReportHtml {
                             true, "onset after injection start (s)"), parts, null),
                     "Onset map", "When each point first rose above the noise threshold (" + ColourMaps.TIDE.word()
                             + " colour map, earliest lightest). The earliest region points at the source even after "
-                            + "the heat has spread. Grey: never rose.");
+                            + "the heat has spread. Hatched: never rose.");
         } else if (onset != null) {
             h.append("<p class=\"blank\">Onset map: no point rose above the noise threshold.</p>\n");
         }
@@ -210,14 +218,17 @@ public final class ReportHtml {
 
         // curves
         List<RiseCurve> curves = PartsCsv.inRankOrder(a.curves(), ranked);
+        curves.removeIf(c -> c == null || c.tS() == null || c.riseK() == null);
         List<RiseCurve> shown = curves.subList(0, Math.min(CURVES_SHOWN, curves.size()));
         boolean anyCurve = shown.stream().anyMatch(c -> c.tS() != null && c.tS().length >= 2);
         if (!comparison && anyCurve) {
             h.append("<section><h2>Rise over time</h2>\n");
             Double start = r.injection() == null ? null : r.injection().startS();
+            boolean anyFit = shown.stream().anyMatch(c -> c.fitTauS() != null && c.fitDtInfK() != null);
             figure(h, Plots.curvesPng(shown, start), "Rise curves", "Rise above ambient of the "
-                    + shown.size() + " leading parts; dashed: the first-order fit "
-                    + "\u0394T\u221e\u00b7(1 \u2212 exp(\u2212(t \u2212 t0)/\u03c4)).");
+                    + (shown.size() == 1 ? "leading part" : shown.size() + " leading parts")
+                    + (anyFit ? "; dots: measured, dashed: the first-order fit "
+                    + "\u0394T\u221e\u00b7(1 \u2212 exp(\u2212(t \u2212 t0)/\u03c4))." : "; no first-order fit was made."));
             h.append("</section>\n");
         }
 
@@ -356,6 +367,17 @@ public final class ReportHtml {
         h.append("<p>").append(ok).append(" ok, ").append(marked).append(" marked by hand, ").append(weak)
                 .append(" weak, ").append(failed).append(" failed (left out).")
                 .append(weak > 0 ? " Weak frames were used, but their mapping is marginal." : "").append("</p>\n");
+    }
+
+    /** An ISO-8601 instant as "2026-12-01 23:40:00 UTC"; anything else unchanged. */
+    static String readableTime(String iso) {
+        if (iso == null) return null;
+        try {
+            java.time.Instant t = java.time.Instant.parse(iso).truncatedTo(java.time.temporal.ChronoUnit.SECONDS);
+            return t.toString().replace('T', ' ').replace("Z", " UTC");
+        } catch (java.time.format.DateTimeParseException e) {
+            return iso;
+        }
     }
 
     private static String titleOf(Analysis a) {

@@ -39,8 +39,8 @@ public final class Materials {
     public static final double CERAMIC_EMISSIVITY = 0.90;
     /** Ferrite or powdered-iron inductor body, about 0.9 (from memory). */
     public static final double INDUCTOR_BODY_EMISSIVITY = 0.90;
-    /** Nickel-plated metal top of a power switch package, 0.1-0.2 (from memory). */
-    public static final double METAL_TOP_EMISSIVITY = 0.15;
+    /** Nickel-plated metal top of a power switch package, 0.05-0.15 (from memory; calibration/materials.json says 0.10). */
+    public static final double METAL_TOP_EMISSIVITY = 0.10;
     /** Vinyl or rubber bench mat, about 0.95 (from memory). */
     public static final double BENCH_MAT_EMISSIVITY = 0.95;
 

@@ -1,6 +1,5 @@
 package org.risetrace.sim;
 
-import org.risetrace.registration.Homography;
 
 import java.util.ArrayList;
 import java.util.List;
@@ -167,17 +166,13 @@ final class Renderer {
         return classEmissivity.size() - 1;
     }
 
-    /** Builds the apparent-temperature tables over [loC, hiC]; returns true when the radiance stand-in was used. */
-    boolean prepare(double loC, double hiC) {
+    /** Builds the apparent-temperature tables over [loC, hiC] of object temperature. */
+    void prepare(double loC, double hiC) {
         double refl = s.reflectedCOrDefault();
         double lo = Math.min(loC, refl) - 2, hi = Math.max(hiC, refl) + 2;
         tables = new ApparentTable[classEmissivity.size()];
-        boolean standIn = false;
-        for (int k = 0; k < tables.length; k++) {
+        for (int k = 0; k < tables.length; k++)
             tables[k] = new ApparentTable(classEmissivity.get(k), refl, s.camera().bandOrDefault(), lo, hi);
-            standIn |= tables[k].standIn;
-        }
-        return standIn;
     }
 
     /** Per-thread scratch buffers. */
@@ -198,7 +193,7 @@ final class Renderer {
      * @param boardToFrame homography board mm to frame px
      * @param noiseSeed seed of this frame's temporal noise
      */
-    void render(float[] cellsC, double[] partsC, double ambientC, Homography boardToFrame, long noiseSeed, Buffers buf) {
+    void render(float[] cellsC, double[] partsC, double ambientC, PlaneMapping boardToFrame, long noiseSeed, Buffers buf) {
         Scenario.BoardSpec b = s.board();
         double dx = b.widthMm() / tw, dy = b.heightMm() / th;
         float[] tex = buf.texApparent;

@@ -28,17 +28,17 @@ public final class Scenarios {
      */
     public static Scenario small(double powerW) {
         List<Scenario.PartSpec> parts = new ArrayList<>();
-        parts.add(part("Q1", "mosfet", 12, 10, 5, 6, "sides", null, "epoxy"));
-        parts.add(part("Q2", "mosfet", 12, 22, 5, 6, "sides", null, "epoxy"));
-        parts.add(part("Q3", "mosfet", 30, 10, 5, 6, "sides", null, "epoxy"));
-        parts.add(part("Q4", "mosfet", 30, 22, 5, 6, "sides", null, "epoxy"));
+        parts.add(part("Q1", "mosfet", 12, 10, 5, 6, "sides", null, "epoxy moulded package"));
+        parts.add(part("Q2", "mosfet", 12, 22, 5, 6, "sides", null, "epoxy moulded package"));
+        parts.add(part("Q3", "mosfet", 30, 10, 5, 6, "sides", null, "epoxy moulded package"));
+        parts.add(part("Q4", "mosfet", 30, 22, 5, 6, "sides", null, "epoxy moulded package"));
         parts.add(part("L1", "inductor", 21, 31, 7, 7, "none", null, null));
         parts.add(part("L2", "inductor", 39, 31, 7, 7, "none", null, null));
-        parts.add(part("C1", "capacitor", 6, 33, 3.2, 1.6, "ends", null, "ceramic"));
-        parts.add(part("C2", "capacitor", 48, 8, 3.2, 1.6, "ends", null, "ceramic"));
-        parts.add(part("C3", "capacitor", 48, 14, 2.0, 1.25, "ends", null, "ceramic"));
-        parts.add(part("C4", "capacitor", 54, 30, 2.0, 1.25, "ends", null, "ceramic"));
-        parts.add(part("U1", "ic", 47, 22, 5, 4, "sides", null, "epoxy"));
+        parts.add(part("C1", "capacitor", 6, 33, 3.2, 1.6, "ends", null, "ceramic capacitor body"));
+        parts.add(part("C2", "capacitor", 48, 8, 3.2, 1.6, "ends", null, "ceramic capacitor body"));
+        parts.add(part("C3", "capacitor", 48, 14, 2.0, 1.25, "ends", null, "ceramic capacitor body"));
+        parts.add(part("C4", "capacitor", 54, 30, 2.0, 1.25, "ends", null, "ceramic capacitor body"));
+        parts.add(part("U1", "ic", 47, 22, 5, 4, "sides", null, "epoxy moulded package"));
         List<Scenario.TraceSpec> traces = List.of(
                 new Scenario.TraceSpec("VIN", new double[][]{{2, 4}, {40, 4}}, 2.0, 35.0, false),
                 new Scenario.TraceSpec(null, new double[][]{{47, 22}, {47, 35}, {30, 37}}, 0.5, 35.0, true));

@@ -4,7 +4,6 @@ import com.fasterxml.jackson.annotation.JsonIgnoreProperties;
 import com.fasterxml.jackson.annotation.JsonInclude;
 import com.fasterxml.jackson.annotation.JsonProperty;
 import org.risetrace.frame.InputRejected;
-import org.risetrace.registration.Homography;
 
 import java.io.IOException;
 import java.nio.file.Path;
@@ -30,7 +29,6 @@ import java.util.Map;
  * @param periodS            square-wave period (null for step)
  * @param grid               the thermal grid
  * @param energy             energy bookkeeping of the run
- * @param radiometry         "band-radiance" or "total-radiance stand-in" (see ApparentTable)
  */
 @JsonInclude(JsonInclude.Include.NON_NULL)
 @JsonIgnoreProperties(ignoreUnknown = false)
@@ -49,8 +47,7 @@ public record Truth(
         @JsonProperty("waveform") String waveform,
         @JsonProperty("period_s") Double periodS,
         @JsonProperty("grid") Grid grid,
-        @JsonProperty("energy") Energy energy,
-        @JsonProperty("radiometry") String radiometry) {
+        @JsonProperty("energy") Energy energy) {
 
     /** A heat source: designator of a part or name of a trace, its power while on, its share of the total. */
     public record Source(@JsonProperty("ref") String ref, @JsonProperty("power_w") double powerW,
@@ -71,7 +68,7 @@ public record Truth(
                              @JsonProperty("ambient_c") double ambientC, @JsonProperty("power_w") double powerW,
                              @JsonProperty("board_corners_px") double[][] boardCornersPx,
                              @JsonProperty("board_to_frame") double[][] boardToFrame) {
-        public Homography homography() { return Homography.fromRows(boardToFrame); }
+        public PlaneMapping homography() { return PlaneMapping.fromRows(boardToFrame); }
     }
 
     /** A part left out of board.json: where it is. */

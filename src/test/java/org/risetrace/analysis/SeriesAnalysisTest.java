@@ -85,12 +85,16 @@ class SeriesAnalysisTest {
         assertEquals("Q2", v.runnerUpRef());
         PartResult q1 = a.result().parts().get(0);
         assertEquals(1, q1.rank());
-        // the rate is the least-squares slope over the window (5, 35] s: compare with the OLS slope of the noiseless
-        // curve on the same times (Draper & Smith eq. 1.2.9), within 4 standard errors. The footprint's p95 of a
-        // Gaussian blob of radius 2 mm over a 5 x 4 mm part is close to the peak, so allow 15 % for the blob profile.
-        double[] tw = new double[30], yw = new double[30];
-        for (int i = 0; i < 30; i++) { tw[i] = 6 + i; yw[i] = 2.0 * (1 - Math.exp(-(tw[i] - 5) / 10)); }
-        double expected = LineFit.fit(tw, yw, null, 0, 30, 0).slope();
+        // the rate is the least-squares slope over the window the analysis chose, (5, 5 + W] s: compare with the OLS
+        // slope of the noiseless curve on the same times (Draper & Smith eq. 1.2.9), within 4 standard errors. The
+        // footprint's p95 of a Gaussian blob of radius 2 mm over a 5 x 4 mm part is close to its peak: allow 15 %.
+        double w = ((Number) a.result().parameters().get("rate_window_used_s")).doubleValue();
+        // the half-rise time of dT_inf (1 - exp(-t / 10 s)) is 10 ln 2 = 6.9 s: the first frame past it is at 7 s
+        assertEquals(7.0, w, 1.01);
+        int m = Math.max(6, (int) Math.floor(w + 1e-9));
+        double[] tw = new double[m], yw = new double[m];
+        for (int i = 0; i < m; i++) { tw[i] = 6 + i; yw[i] = 2.0 * (1 - Math.exp(-(tw[i] - 5) / 10)); }
+        double expected = LineFit.fit(tw, yw, null, 0, m, 0).slope();
         assertEquals(expected, q1.rateKPerS(), 0.15 * expected + 4 * q1.rateSe(), "rate " + q1.rateKPerS());
         // simulated tau = 10 s, dT_inf = 2 K; the 95th percentile of blob + noise is not linear in the blob's
         // amplitude near the noise level, which bends the early curve: allow 10 % besides the standard errors

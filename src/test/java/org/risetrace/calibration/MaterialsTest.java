@@ -22,6 +22,7 @@ class MaterialsTest {
                 "bare copper", "tin-lead solder", "lead-free solder", "aluminium bare", "aluminium anodised",
                 "painted sleeve", "polyimide tape", "black vinyl tape"))
             assertTrue(m.contains(name), name);
+        for (Material x : m.materials()) assertTrue(m.contains(x.name()));
         for (String name : m.names()) {
             Material x = m.get(name);
             assertTrue(x.emissivity() > 0 && x.emissivity() <= 1, name);
@@ -46,6 +47,10 @@ class MaterialsTest {
         Materials m = Materials.load();
         assertEquals("lead-free solder", m.get("Lead_Free  Solder").name());
         assertEquals("black vinyl tape", m.get("black-vinyl-tape").name());
+        // short names in use on boards and in scenarios are aliases of the full entries, listed among the names
+        assertEquals("epoxy moulded package", m.get("epoxy").name());
+        assertEquals("ceramic capacitor body", m.get("ceramic").name());
+        assertTrue(m.names().contains("epoxy") && m.names().contains("bare copper"));
     }
 
     @Test
@@ -82,6 +87,11 @@ class MaterialsTest {
 
         Files.writeString(f, "[{\"name\": \"a\", \"emissivity\": 0.9, \"uncertainty\": 0.02, \"source\": \"x\"},"
                 + "{\"name\": \"A\", \"emissivity\": 0.8, \"uncertainty\": 0.02, \"source\": \"y\"}]");
+        e = assertThrows(InputRejected.class, () -> Materials.load(f));
+        assertTrue(e.getMessage().contains("twice"), e.getMessage());
+
+        Files.writeString(f, "[{\"name\": \"a\", \"aliases\": [\"b\"], \"emissivity\": 0.9, \"uncertainty\": 0.02, \"source\": \"x\"},"
+                + "{\"name\": \"b\", \"emissivity\": 0.8, \"uncertainty\": 0.02, \"source\": \"y\"}]");
         e = assertThrows(InputRejected.class, () -> Materials.load(f));
         assertTrue(e.getMessage().contains("twice"), e.getMessage());
 

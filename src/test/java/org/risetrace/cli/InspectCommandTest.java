@@ -140,7 +140,7 @@ class InspectCommandTest {
     @Test
     void missingFileIsRejected() {
         Path f = dir.resolve("nothing-here.png");
-        assertRejected(run("inspect", f.toString()), f, "not found");
+        assertRejected(run("inspect", f.toString()), f, "no such file or folder");
     }
 
     @Test
@@ -267,8 +267,9 @@ class InspectCommandTest {
     @Test
     void unknownSidecarFieldIsRejected() throws IOException {
         png16("f1.png", 160, 128, 29815);
-        Path sidecar = Files.writeString(dir.resolve("series.json"), "{\"frame_intervall_s\": 0.5}");
-        assertRejected(run("inspect", dir.toString()), sidecar, "unknown field 'frame_intervall_s'", "line 1");
+        Path sidecar = Files.writeString(dir.resolve("series.json"),
+                "{\n  \"profile\": \"u16-centikelvin\",\n  \"frame_intervall_s\": 0.5\n}");
+        assertRejected(run("inspect", dir.toString()), sidecar, "unknown field 'frame_intervall_s'", "line 3, column 3");
     }
 
     @Test

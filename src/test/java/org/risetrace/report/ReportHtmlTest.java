@@ -75,7 +75,10 @@ class ReportHtmlTest {
         }
         assertTrue(page.contains("RT-7 bench board"));
         assertTrue(page.contains("cases/rt7-bench/series-01"));
-        assertTrue(page.contains(a.result().createdUtc()));
+        assertTrue(page.contains("2026-12-01 23:40:00 UTC"), "analysis time in the header");
+        assertEquals("2026-12-01 23:31:25 UTC", ReportHtml.readableTime("2026-12-01T23:31:25.811668625Z"));
+        assertEquals("yesterday", ReportHtml.readableTime("yesterday"));
+        assertFalse(page.contains("could not be mapped onto the board"), "1 of 60 failed is no headline matter");
         assertTrue(page.contains("Customer says: no power after a spill."));
         assertTrue(page.contains("clip on the output capacitor bank"), "injection notes");
         assertTrue(page.contains("VCORE") && page.contains("3 A"), "injection record");
@@ -128,6 +131,23 @@ class ReportHtmlTest {
         assertTrue(yTop < yBottom, "y axis inverted: smaller board y is higher on the page");
     }
 
+    @Test
+    void fineMapsAreAveragedIntoAtMost240BlocksAcross() {
+        int w = 1000, h = 500;  // 100 x 50 mm at 10 px/mm
+        float[] v = new float[w * h];
+        for (int i = 0; i < v.length; i++) v[i] = (i % w) < w / 2 ? 1f : 3f;
+        JFreeChart chart = Plots.mapChart(new Plots.Grid(w, h, 10.0, v, 100, 50),
+                new Plots.Shading(ColourMaps.EMBER, 0, 3, false, "K"), List.of(), null);
+        org.jfree.data.xy.XYZDataset data = (org.jfree.data.xy.XYZDataset) chart.getXYPlot().getDataset();
+        int bin = (int) Math.ceil(w / (double) Plots.MAX_BLOCKS_ACROSS);  // 5 px per block
+        assertEquals(((w + bin - 1) / bin) * ((h + bin - 1) / bin), data.getItemCount(0));
+        // a bin's value is the mean of its pixels: the bins left of x = 50 mm hold 1 K, right of it 3 K
+        for (int k = 0; k < data.getItemCount(0); k++) {
+            double x = data.getXValue(0, k), z = data.getZValue(0, k);
+            assertEquals(x < 50 ? 1.0 : 3.0, z, 1e-6, "bin at x = " + x);
+        }
+    }
+
     private static int[] pixelAt(BufferedImage img, XYPlot plot, Rectangle2D area, double xMm, double yMm) {
         int px = (int) Math.round(plot.getDomainAxis().valueToJava2D(xMm, area, RectangleEdge.BOTTOM));
         int py = (int) Math.round(plot.getRangeAxis().valueToJava2D(yMm, area, RectangleEdge.LEFT));
@@ -168,6 +188,27 @@ class ReportHtmlTest {
         assertTrue(page.contains("notes &lt;script&gt;x()&lt;/script&gt; &amp; more"));
         assertTrue(page.contains("V&quot;CC"));
         assertFalse(page.contains("<script"));
+    }
+
+    @Test
+    void manyFailedFramesAreSaidNextToTheVerdict() {
+        Analysis a = DemoAnalysis.build();
+        AnalysisResult r = a.result();
+        List<FrameRecord> frames = new ArrayList<>();
+        for (int i = 0; i < r.frames().size(); i++) {
+            FrameRecord f = r.frames().get(i);
+            boolean fail = i >= 20;
+            frames.add(fail ? new FrameRecord(f.file(), f.tS(), f.sha256(), false,
+                    new FrameRecord.Registration("failed", 0.5, "image similarity too low", null)) : f);
+        }
+        AnalysisResult worse = new AnalysisResult(r.schema(), r.tool(), r.version(), r.createdUtc(), r.series(),
+                r.board(), r.profile(), r.parameters(), r.injection(), r.verdict(), r.parts(), r.hotspots(), frames);
+        String page = ReportHtml.toHtml(new Analysis(worse, a.board(), a.curves(), a.riseMap(), a.onsetMap(),
+                a.lastFrame()), null);
+        int verdict = page.indexOf("<section class=\"verdict");
+        int warning = page.indexOf("40 of 60 frames could not be mapped onto the board and were left out; "
+                + "the answer rests on 20 frames.");
+        assertTrue(warning > verdict && warning < page.indexOf("</section>", verdict), "warning inside the verdict box");
     }
 
     @Test

@@ -37,6 +37,7 @@ public final class SeriesAnalysis {
     private final List<Double> times = new ArrayList<>(), ambient = new ArrayList<>();
     private final List<Boolean> weak = new ArrayList<>();
     private final List<Double> weakRmsPx = new ArrayList<>();
+    private final List<org.risetrace.registration.Homography> mappings = new ArrayList<>();
     private int baselineUsed;
     private RiseMaps maps;
     private FootprintSampler footprints;
@@ -44,7 +45,7 @@ public final class SeriesAnalysis {
     private double framePxPerMm = Double.NaN;
     private double lastT = Double.NEGATIVE_INFINITY;
     private double windowUsedS = Double.NaN;
-    private double positionScale = 1;
+    private double positionScale = 0;
 
 
     public SeriesAnalysis(Board board, AnalysisOptions options, BaselinePlan plan, EmissivityModel emissivity,
@@ -71,7 +72,7 @@ public final class SeriesAnalysis {
         BoardRaster raster = s.raster();
         if (maps == null) {
             maps = new RiseMaps(raster.width(), raster.height(), raster.pxPerMm(), options.kSigma(),
-                    options.onsetFrames(), plan.tStartS());
+                    options.onsetFrames(), plan.tStartS(), options.lastFrames());
             footprints = new FootprintSampler(parts, raster.width(), raster.height(), raster.pxPerMm());
             if (r.boardToFrame() != null) framePxPerMm = framePxPerMm(r, board);
         }
@@ -86,6 +87,7 @@ public final class SeriesAnalysis {
         ambient.add(s.ambientC());
         weak.add(r.status() == RegistrationStatus.WEAK);
         if (r.status() == RegistrationStatus.WEAK && Double.isFinite(r.rmsPx())) weakRmsPx.add(r.rmsPx());
+        mappings.add(r.boardToFrame());
         lastRaster = raster;
     }
 
@@ -142,14 +144,21 @@ public final class SeriesAnalysis {
 
         // per part: object temperatures, weights, how far registration and resampling alone can move each reading
         float[] baseMean = maps.baselineMean();
-        // weakly registered frames may sit further off than half a pixel: scale the half-pixel sensitivity by the
-        // median residual of the weak frames (frame px converted to board px) over half a pixel
-        double positionScale = 1;
-        if (!weakRmsPx.isEmpty()) {
-            double[] rms = weakRmsPx.stream().mapToDouble(Double::doubleValue).toArray();
-            double boardPxPerFramePx = Double.isFinite(framePxPerMm) && framePxPerMm > 0 ? maps.pxPerMm() / framePxPerMm : 1;
-            positionScale = Math.max(1, PartCurve.median(rms, rms.length) * boardPxPerFramePx / 0.5);
+        // how far the sampling phase can wander: the largest displacement of the board centre in the frame since
+        // the first frame after the injection start (frame px converted to board px); relative to half a pixel it
+        // scales each footprint's half-pixel sensitivity
+        double boardPxPerFramePx = Double.isFinite(framePxPerMm) && framePxPerMm > 0 ? maps.pxPerMm() / framePxPerMm : 1;
+        double drift = 0;
+        double[] ref = null;
+        for (int i = 0; i < n; i++) {
+            if (t[i] <= plan.tStartS() || mappings.get(i) == null) continue;
+            double[] c = mappings.get(i).apply(board.widthMm() / 2, board.heightMm() / 2);
+            if (ref == null) ref = c;
+            else drift = Math.max(drift, Math.hypot(c[0] - ref[0], c[1] - ref[1]));
         }
+        // (a weak frame's residual is scatter from frame to frame, which the rate fit's residuals already measure;
+        // only the wander of the mapping itself biases a rate)
+        double positionScale = drift * boardPxPerFramePx / 0.5;
         this.positionScale = positionScale;
         EmissivityModel.Emissivity[] eps = new EmissivityModel.Emissivity[np];
         double[][] ys = new double[np][], ws = new double[np][];

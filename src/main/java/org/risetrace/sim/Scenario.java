@@ -12,7 +12,6 @@ import org.risetrace.frame.InputRejected;
 import org.risetrace.io.write.FrameEncoding;
 
 import java.io.IOException;
-import java.io.InputStream;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
@@ -483,16 +482,6 @@ public record Scenario(
             return parse(Files.readAllBytes(file), file);
         } catch (IOException e) {
             throw new InputRejected(file, "cannot read scenario: " + e.getMessage());
-        }
-    }
-
-    /** Reads a scenario bundled on the class path (e.g. "/org/risetrace/sim/small-board.json"). */
-    public static Scenario resource(String name) {
-        try (InputStream in = Scenario.class.getResourceAsStream(name)) {
-            if (in == null) throw new IllegalArgumentException("no bundled scenario " + name);
-            return parse(in.readAllBytes(), Path.of(name));
-        } catch (IOException e) {
-            throw new java.io.UncheckedIOException(e);
         }
     }
 

@@ -117,7 +117,7 @@ public final class TiffReader implements FrameReader {
         if (offsets.length < (long) across * down)
             throw new InputRejected(file, "TIFF lists " + offsets.length + " " + (tiled ? "tiles" : "strips")
                     + " but the image needs " + (long) across * down);
-        boolean little = ifd.littleEndian;
+        java.nio.ByteOrder order = ifd.littleEndian ? java.nio.ByteOrder.LITTLE_ENDIAN : java.nio.ByteOrder.BIG_ENDIAN;
         short[] out = new short[width * height];
         for (int t = 0; t < across * down; t++) {
             int x0 = (t % across) * tw, y0 = (t / across) * tl;
@@ -127,14 +127,11 @@ public final class TiffReader implements FrameReader {
             if (base < 0 || need > b.length)
                 throw new InputRejected(file, "truncated TIFF file: " + (tiled ? "tile " : "strip ") + t
                         + " needs bytes up to " + need + " but the file has " + b.length);
-            for (int r = 0; r < rows; r++) {
-                int p = (int) (base + (long) r * tw * 2);
-                int o = (y0 + r) * width + x0;
-                if (little) {
-                    for (int c = 0; c < cols; c++, p += 2) out[o + c] = (short) ((b[p] & 0xFF) | (b[p + 1] << 8));
-                } else {
-                    for (int c = 0; c < cols; c++, p += 2) out[o + c] = (short) ((b[p] << 8) | (b[p + 1] & 0xFF));
-                }
+            java.nio.ShortBuffer in = java.nio.ByteBuffer.wrap(b).order(order).position((int) base).asShortBuffer();
+            if (cols == width && tw == width) {
+                in.get(out, y0 * width, rows * width); // a whole strip is contiguous: one bulk, byte-swapping copy
+            } else {
+                for (int r = 0; r < rows; r++) in.position(r * tw).get(out, (y0 + r) * width + x0, cols);
             }
         }
         return RawSamples.counts(width, height, 16, out, detail(ifd, false));

@@ -9,7 +9,7 @@ import java.util.concurrent.ConcurrentHashMap;
  *
  * <p>Between {@value #TABLE_FROM_C} and {@value #TABLE_TO_C} degrees Celsius the radiance and its temperature
  * derivative are tabulated every {@value #STEP_K} K by quadrature ({@link Planck#bandRadiance}) and interpolated by
- * cubic Hermite polynomials; the inverse finds the table interval through an index of equal steps in ln L (the
+ * cubic Hermite polynomials; the inverse finds the table interval through an index of equal steps in L (the
  * column is monotone) and solves the interval's cubic by Newton's method. The interpolation error is about 1e-11
  * relative in L and 1e-9 K in T (the step is small against the curvature of L(T)); outside the table both
  * directions fall back to quadrature and a bracketed Newton's method.
@@ -33,10 +33,14 @@ public final class BandRadiance {
     private final double t0Kelvin;
     private final double[] radiance;     // W m^-2 sr^-1 at t0 + i * STEP_K
     private final double[] derivative;   // dL/dT at the same nodes, W m^-2 sr^-1 K^-1
-    /** Index of the table interval at the start of each bin of equal width in ln L: the inverse's first guess. */
-    private final int[] binStart;
-    private final double lnL0, binsPerLn;
-    private static final int BINS = 4096;
+    /**
+     * Index of the table interval at the start of each of {@link #BINS} equal steps in L: the inverse's first guess.
+     * In the long-wave band the steps are finer than the table's smallest radiance step, so the guess is the
+     * interval or the one before; in shorter bands the search walks on a few intervals at the cold end.
+     */
+    private final char[] binStart;
+    private final double binsPerRadiance;
+    private static final int BINS = 1 << 16;
 
     private record Band(double fromUm, double toUm) {
     }
@@ -53,14 +57,13 @@ public final class BandRadiance {
             radiance[i] = Planck.bandRadiance(fromUm, toUm, t);
             derivative[i] = Planck.bandRadianceDerivative(fromUm, toUm, t);
         }
-        lnL0 = Math.log(radiance[0]);
-        binsPerLn = BINS / (Math.log(radiance[n - 1]) - lnL0);
-        binStart = new int[BINS + 1];
+        binsPerRadiance = BINS / (radiance[n - 1] - radiance[0]);
+        binStart = new char[BINS + 1];
         int i = 0;
         for (int b = 0; b <= BINS; b++) {
-            double lnAtBin = lnL0 + b / binsPerLn;
-            while (i < n - 2 && Math.log(radiance[i + 1]) <= lnAtBin) i++;
-            binStart[b] = i;
+            double atBin = radiance[0] + b / binsPerRadiance;
+            while (i < n - 2 && radiance[i + 1] <= atBin) i++;
+            binStart[b] = (char) i;
         }
     }
 
@@ -123,9 +126,9 @@ public final class BandRadiance {
     public double kelvin(double bandRadiance) {
         int top = radiance.length - 1;
         if (bandRadiance >= radiance[0] && bandRadiance <= radiance[top]) {
-            // the ln L bin gives the first table interval that may hold the radiance; step on to the right one
-            int bin = (int) ((Math.log(bandRadiance) - lnL0) * binsPerLn);
-            int lo = binStart[Math.max(0, Math.min(BINS, bin))];
+            // the bin gives the first table interval that may hold the radiance; step on to the right one
+            int bin = (int) ((bandRadiance - radiance[0]) * binsPerRadiance);
+            int lo = binStart[Math.min(BINS, bin)];
             while (lo > 0 && radiance[lo] > bandRadiance) lo--;
             while (lo < top - 1 && radiance[lo + 1] <= bandRadiance) lo++;
             double l0 = radiance[lo], l1 = radiance[lo + 1];
@@ -138,7 +141,7 @@ public final class BandRadiance {
                 double dp = (6 * s2 - 6 * s) * l0 + (3 * s2 - 4 * s + 1) * d0 + (-6 * s2 + 6 * s) * l1 + (3 * s2 - 2 * s) * d1;
                 double ds = (p - bandRadiance) / dp;
                 s -= ds;
-                if (Math.abs(ds) < 1e-13) break;
+                if (Math.abs(ds) < 1e-12) break; // 5e-13 K
             }
             return t0Kelvin + (lo + s) * STEP_K;
         }

@@ -16,10 +16,11 @@ import java.util.List;
  * @param linearisationMaxErrorK  largest difference between the curve and its linearisation over the calibrated
  *                                signal range, kelvin (0 for the linear models)
  * @param rangeC                  [lowest, highest] known temperature, degrees Celsius
+ * @param notes                   warnings for the user: non-uniform targets, large residuals, an implausible curve
  */
 public record CalibrationResult(Profile profile, CalibrationModel model, List<ReferencePoint> points, double[] modelC,
                                 double[] residualK, double[] profileResidualK, SakumaHattori curve,
-                                double linearisationMaxErrorK, double[] rangeC) {
+                                double linearisationMaxErrorK, double[] rangeC, List<String> notes) {
 
     /** Root-mean-square of the profile residuals, kelvin. */
     public double rmsResidualK() {

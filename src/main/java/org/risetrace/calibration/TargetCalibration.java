@@ -153,8 +153,27 @@ public final class TargetCalibration {
                     linearisationK, name);
         profile = new Profile(profile.name(), desc, profile.encoding(), profile.gain(), profile.offset(),
                 profile.unit(), profile.spanC(), profile.netdK(), profile.bandUm(), profile.defaultEmissivity());
+        List<String> notes = new ArrayList<>();
+        for (ReferencePoint p : points)
+            if (p.spreadK() > 3 * base.netdK())
+                notes.add(String.format(Locale.ROOT, "target %s is not uniform (spread %.2f K over its pixels):"
+                        + " check its region", p.label(), p.spreadK()));
+        if (maxAbs(profileResidual) > 3 * base.netdK())
+            notes.add(String.format(Locale.ROOT, "residuals up to %.2f K exceed 3 x NETD (%.2f K): check the target"
+                    + " regions and known values, or try another model", maxAbs(profileResidual), 3 * base.netdK()));
+        if (curve != null && linearisationK > base.netdK())
+            notes.add(String.format(Locale.ROOT, "the profile's straight line departs from the fitted curve by up to"
+                    + " %.2f K over the calibrated range (a profile holds only gain and offset): calibrate over a"
+                    + " narrower range, or apply the curve file", linearisationK));
+        if (curve != null) {
+            double[] band = base.bandUm() == null ? BandRadiance.DEFAULT_BAND_UM : base.bandUm();
+            if (curve.aUm() < band[0] / 2 || curve.aUm() > band[1] * 2)
+                notes.add(String.format(Locale.ROOT, "the curve's effective wavelength A = %.4g um is far outside the"
+                        + " %.4g-%.4g um band: the counts are not proportional to radiance (perhaps already linear in"
+                        + " temperature); gain-offset is the better model", curve.aUm(), band[0], band[1]));
+        }
         return new CalibrationResult(profile, model, List.copyOf(points), modelC, residual, profileResidual, curve,
-                linearisationK, new double[]{lowC, highC});
+                linearisationK, new double[]{lowC, highC}, List.copyOf(notes));
     }
 
     private static double curveCelsius(SakumaHattori curve, double count, ReferencePoint p) {

@@ -94,9 +94,6 @@ public final class CalibrateCommand implements Callable<Integer> {
             double newC = r.profile().countToCelsius(p.signal());
             o.printf(Locale.ROOT, "%-28s %12.2f %10.3f %10.3f %+10.3f %12.3f%n", p.label(), p.signal(), p.knownC(),
                     newC, r.profileResidualK()[i], p.spreadK());
-            if (p.spreadK() > 3 * base.netdK())
-                err.printf(Locale.ROOT, "risetrace: target %s is not uniform (spread %.2f K): check its region%n",
-                        p.label(), p.spreadK());
         }
         if (r.curve() != null)
             o.printf(Locale.ROOT, "Sakuma-Hattori: C = %.6g, A = %.6g um, B = %.6g um K; curve residuals up to %.3f K;"
@@ -104,9 +101,7 @@ public final class CalibrateCommand implements Callable<Integer> {
                     r.curve().bUmK(), maxAbs(r.residualK()), r.linearisationMaxErrorK());
         o.printf(Locale.ROOT, "gain %.9g, offset %.9g %s; residuals rms %.3f K, max %.3f K%n", r.profile().gain(),
                 r.profile().offset(), r.profile().unit(), r.rmsResidualK(), r.maxResidualK());
-        if (r.maxResidualK() > 3 * base.netdK())
-            err.printf(Locale.ROOT, "risetrace: residuals up to %.2f K exceed 3 x NETD (%.2f K): check the target"
-                    + " regions, the known values, or try another --model%n", r.maxResidualK(), 3 * base.netdK());
+        for (String note : r.notes()) err.println("risetrace: " + note);
         for (Path p : written) o.println("wrote " + p);
         return Main.EXIT_OK;
     }

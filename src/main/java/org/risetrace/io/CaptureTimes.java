@@ -1,6 +1,11 @@
 package org.risetrace.io;
 
+import org.apache.commons.imaging.FormatCompliance;
 import org.apache.commons.imaging.Imaging;
+import org.apache.commons.imaging.bytesource.ByteSource;
+import org.apache.commons.imaging.formats.tiff.TiffContents;
+import org.apache.commons.imaging.formats.tiff.TiffDirectory;
+import org.apache.commons.imaging.formats.tiff.TiffReader;
 import org.apache.commons.imaging.common.ImageMetadata;
 import org.apache.commons.imaging.formats.jpeg.JpegImageMetadata;
 import org.apache.commons.imaging.formats.tiff.TiffField;
@@ -15,6 +20,7 @@ import java.time.LocalDateTime;
 import java.time.ZoneOffset;
 import java.time.format.DateTimeFormatter;
 import java.time.format.DateTimeParseException;
+import java.util.ArrayList;
 import java.util.List;
 
 /**
@@ -53,6 +59,14 @@ public final class CaptureTimes {
         boolean tiff = (head[0] == 'I' && head[1] == 'I' && head[2] == 42) || (head[0] == 'M' && head[1] == 'M' && head[3] == 42);
         if (!jpeg && !tiff) return null;
         try {
+            if (tiff) {
+                // only the directories (IFD 0, EXIF IFD, ...), not the strips: opening a long series stays cheap
+                TiffContents contents = new TiffReader(true).readDirectories(ByteSource.file(file.toFile()), false,
+                        FormatCompliance.getDefault());
+                List<TiffField> fields = new ArrayList<>();
+                for (TiffDirectory d : contents.directories) fields.addAll(d.getDirectoryEntries());
+                return fromFields(fields);
+            }
             ImageMetadata md = Imaging.getMetadata(file.toFile());
             TiffImageMetadata exif = md instanceof JpegImageMetadata j ? j.getExif()
                     : md instanceof TiffImageMetadata t ? t : null;

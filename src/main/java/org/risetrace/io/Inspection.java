@@ -27,6 +27,7 @@ public final class Inspection {
         Set<String> warnings = new LinkedHashSet<>();
         for (Path input : inputs) {
             Series series;
+            if (!Files.exists(input)) throw new org.risetrace.frame.InputRejected(input, "no such file or folder");
             if (Files.isDirectory(input)) {
                 series = Series.open(input, profileOverride, maxPixels);
             } else {

@@ -14,6 +14,11 @@ final class TiffHeader {
     static final int TAG_PREDICTOR = 317;
     static final int TAG_TILE_WIDTH = 322;
     static final int TAG_SAMPLE_FORMAT = 339;
+    static final int TAG_IMAGE_LENGTH = 257;
+    static final int TAG_SAMPLES_PER_PIXEL = 277;
+    static final int TAG_ROWS_PER_STRIP = 278;
+    static final int TAG_PLANAR_CONFIGURATION = 284;
+    static final int TAG_TILE_LENGTH = 323;
     static final int TAG_COMPRESSION = 259;
     static final int TAG_PHOTOMETRIC = 262;
     static final int TAG_STRIP_OFFSETS = 273;

@@ -3,7 +3,7 @@ package org.risetrace.registration;
 /**
  * Inverse-compositional Gauss-Newton alignment of a frame's band-passed pyramid to the reference template
  * (Baker and Matthews, "Lucas-Kanade 20 Years On", IJCV 2004), coarse to fine, with an 8-parameter homography
- * (6-parameter affine on the top level of a deep pyramid), a global gain and offset per iteration, and Huber
+ * (6-parameter affine on the top level of a deep pyramid), a robust offset per iteration, and Huber then Tukey
  * weights (scale from the median absolute residual) so heating parts do not pull the fit. One instance per thread.
  */
 final class DirectAligner {
@@ -11,6 +11,10 @@ final class DirectAligner {
     /** True when the last level's final step moved no corner of the image by more than the tolerance. */
     boolean converged;
     int iterations;
+    /** Degrees of freedom of the fitted motion: 4 similarity, 6 affine, 8 homography. */
+    int model = 8;
+    /** Tukey weights from the first iteration (the start is already close, e.g. the last frame's mapping). */
+    boolean robustFromStart;
 
     /**
      * Refines startFull (reference to frame, full-resolution pixels) from level fromLevel down to level 0.
@@ -24,14 +28,14 @@ final class DirectAligner {
             ReferenceModel.Level lv = ref.level[l];
             if (lv.n < 16) continue;
             ensure(lv.n);
-            int params = (l == ref.levels - 1 && l >= 2) ? 6 : 8;
+            int params = Math.min(model, (l == ref.levels - 1 && l >= 2) ? 6 : 8);
             double[] hl = Pyramid.toLevel(h, l);
-            int maxIter = l == 0 ? 15 : 25;
+            int maxIter = l == 0 ? 10 : 20;
             double tol = l == 0 ? 0.02 : 0.05;
             boolean settled = false;
             for (int it = 0; it < maxIter; it++) {
                 iterations++;
-                double[] dp = step(lv, frame.bandPass[l], frame.widths[l], frame.heights[l], hl, params);
+                double[] dp = step(lv, frame.bandPass[l], frame.widths[l], frame.heights[l], hl, params, it >= 3 || l < fromLevel || robustFromStart);
                 if (dp == null) return null;
                 double[] dh = incrementInPixels(dp, lv);
                 double[] inv = invert(dh);
@@ -51,9 +55,9 @@ final class DirectAligner {
     }
 
     /** One Gauss-Newton step: the parameter increment (8 values, the last two 0 for affine) or null. */
-    private double[] step(ReferenceModel.Level lv, float[] img, int w, int h, double[] H, int params) {
+    private double[] step(ReferenceModel.Level lv, float[] img, int w, int h, double[] H, int params, boolean tukey) {
         int n = lv.n, valid = 0;
-        double st = 0, st2 = 0, si = 0, si2 = 0;
+        double si = 0, si2 = 0;
         for (int i = 0; i < n; i++) {
             double x = lv.x[i], y = lv.y[i];
             double z = H[6] * x + H[7] * y + H[8];
@@ -62,39 +66,79 @@ final class DirectAligner {
             warped[i] = f;
             if (f == f) {
                 valid++;
-                st += lv.t[i]; st2 += lv.t[i] * lv.t[i]; si += f; si2 += f * f;
+                si += f; si2 += f * f;
             }
         }
         if (valid < Math.max(16, n / 4)) return null;
-        double mt = st / valid, mi = si / valid;
-        double sdT = Math.sqrt(Math.max(0, st2 / valid - mt * mt)), sdI = Math.sqrt(Math.max(0, si2 / valid - mi * mi));
-        if (sdI < 1e-12 || sdT < 1e-12) return null;
-        double gain = Math.max(0.5, Math.min(2.0, sdT / sdI)), offset = mt - gain * mi;
+        double sdI = Math.sqrt(Math.max(0, si2 / valid - (si / valid) * (si / valid)));
+        if (sdI < 1e-12) return null;
+        // offset: median difference (robust against parts that heated); no gain, since the band-pass removes the
+        // board's overall warming and a gain fitted to a frame with a hot part would shrink the board's texture
         int m = 0;
         for (int i = 0; i < n; i++) {
             float f = warped[i];
             if (f != f) continue;
-            float e = (float) (gain * f + offset - lv.t[i]);
+            abs[m++] = f - lv.t[i];
+        }
+        double offset = select(abs, m, m / 2);
+        m = 0;
+        for (int i = 0; i < n; i++) {
+            float f = warped[i];
+            if (f != f) continue;
+            float e = (float) (f - offset - lv.t[i]);
             err[i] = e;
             abs[m++] = Math.abs(e);
         }
-        double sigma = 1.4826 * select(abs, m, m / 2);
-        double k = 1.345 * Math.max(sigma, 1e-9);
+        double sigma = Math.max(1.4826 * select(abs, m, m / 2), 1e-9);
+        // Huber weights while far from the solution, then Tukey's biweight, which ignores pixels that changed
+        // (parts heating) altogether (robust M-estimation, Huber 1981; Tukey constants 1.345 and 4.685 give 95 %
+        // efficiency under Gaussian noise)
+        double k = tukey ? 4.685 * sigma : 1.345 * sigma;
         double[] a = new double[64], g = new double[8];
         float[] sd = lv.sd;
         for (int i = 0; i < n; i++) {
             if (warped[i] != warped[i]) continue;
             double e = err[i], ae = Math.abs(e);
-            double wt = ae <= k ? 1.0 : k / ae;
+            double wt;
+            if (tukey) {
+                if (ae >= k) continue;
+                double u = ae / k, v = 1 - u * u;
+                wt = v * v;
+            } else wt = ae <= k ? 1.0 : k / ae;
             int o = 8 * i;
-            for (int r = 0; r < params; r++) {
+            for (int r = 0; r < 8; r++) {
                 double sr = sd[o + r] * wt;
                 g[r] += sr * e;
-                for (int c = r; c < params; c++) a[r * 8 + c] += sr * sd[o + c];
+                for (int c = r; c < 8; c++) a[r * 8 + c] += sr * sd[o + c];
             }
         }
-        for (int r = 0; r < params; r++) for (int c = 0; c < r; c++) a[r * 8 + c] = a[c * 8 + r];
+        for (int r = 0; r < 8; r++) for (int c = 0; c < r; c++) a[r * 8 + c] = a[c * 8 + r];
+        if (params == 4) return similarityStep(a, g);
         return solve(a, g, params);
+    }
+
+    /**
+     * The step restricted to a similarity (zoom-rotation a, b and shift): p = M q with p0 = p3 = a, p1 = b,
+     * p2 = -b, p4 = tx, p5 = ty, so the reduced normal equations are M^T A M q = M^T g.
+     */
+    private static double[] similarityStep(double[] a, double[] g) {
+        double[][] m = {{1, 0, 0, 0}, {0, 1, 0, 0}, {0, -1, 0, 0}, {1, 0, 0, 0}, {0, 0, 1, 0}, {0, 0, 0, 1},
+                {0, 0, 0, 0}, {0, 0, 0, 0}};
+        double[] ar = new double[64], gr = new double[8];
+        for (int i = 0; i < 4; i++) {
+            for (int r = 0; r < 8; r++) gr[i] += m[r][i] * g[r];
+            for (int j = 0; j < 4; j++) {
+                double s = 0;
+                for (int r = 0; r < 8; r++) {
+                    if (m[r][i] == 0) continue;
+                    for (int c = 0; c < 8; c++) s += m[r][i] * a[r * 8 + c] * m[c][j];
+                }
+                ar[i * 8 + j] = s;
+            }
+        }
+        double[] q = solve(ar, gr, 4);
+        if (q == null) return null;
+        return new double[]{q[0], q[1], -q[1], q[0], q[2], q[3], 0, 0};
     }
 
     /** The increment warp, defined in the level's normalised coordinates, as a pixel homography N^-1 dH N. */

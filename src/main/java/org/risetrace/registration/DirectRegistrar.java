@@ -23,7 +23,15 @@ final class DirectRegistrar implements Registrar {
         final DirectAligner aligner = new DirectAligner();
         FeatureSet.Matcher matcher;
         Homography previous;
+        /** The last frame graded ok on this thread and its reference-to-frame mapping (for chaining). */
+        Frame lastGood;
+        Homography lastGoodRefToFrame;
+        DirectRegistrar chain;
+        String chainName;
     }
+
+    /** Whether frames that no longer match the reference may be registered through the last ok frame. */
+    private final boolean mayChain;
 
     /** Quality of one candidate mapping (reference to frame). */
     record Grade(Homography refToFrame, RegistrationStatus status, String reason, double similarity, double rmsPx,
@@ -36,6 +44,11 @@ final class DirectRegistrar implements Registrar {
     }
 
     DirectRegistrar(ReferenceModel ref, RegistrationConfig config) {
+        this(ref, config, true);
+    }
+
+    private DirectRegistrar(ReferenceModel ref, RegistrationConfig config, boolean mayChain) {
+        this.mayChain = mayChain;
         this.ref = ref;
         this.config = config;
         this.workspace = ThreadLocal.withInitial(Workspace::new);
@@ -65,7 +78,9 @@ final class DirectRegistrar implements Registrar {
             int fast = Math.min(2, top);
             if (config.method().equals("auto")) {
                 Homography start = ws.previous != null ? ws.previous : Homography.identity();
+                ws.aligner.robustFromStart = true;
                 best = attempt(ws, start, fast, best);
+                ws.aligner.robustFromStart = false;
                 if (best != null && best.rank() == 2) return finish(frame, ws, best);
             }
             if (!config.method().equals("features")) {
@@ -81,6 +96,13 @@ final class DirectRegistrar implements Registrar {
                 Homography f = ws.matcher.match(ref.features, ws.pyramid.bandPass[0], ref.width, ref.height, inl);
                 if (f != null && plausibility(f) == null) best = attempt(ws, f, fast, best);
             }
+            if (mayChain && (best == null || best.rank() < 2) && ws.lastGood != null) {
+                FrameRegistration chained = throughLastGood(ws, frame);
+                if (chained != null && chained.status() == RegistrationStatus.OK) {
+                    remember(ws, frame, chained.boardToFrame().compose(ref.boardToReference.inverse()));
+                    return chained;
+                }
+            }
             if (best == null) return failed(frame, "no mapping found: nothing in the frame matches the reference");
             return finish(frame, ws, best);
         } catch (RuntimeException e) {
@@ -88,11 +110,62 @@ final class DirectRegistrar implements Registrar {
         }
     }
 
+    /**
+     * Aligns from start with the simplest motion that explains the frame: first a similarity (shift, rotation,
+     * zoom: 4 parameters, what a stand's drift and most hand-held motion are, and far better conditioned on weakly
+     * textured thermal images than 8), then, when that does not grade ok, the full homography refined from it; the
+     * homography is kept only when it grades better or its check patches agree clearly more closely.
+     */
     private Grade attempt(Workspace ws, Homography start, int fromLevel, Grade best) {
+        Grade simple = alignAndGrade(ws, start, fromLevel, 4);
+        if (simple != null && simple.rank() == 2)
+            return simple.betterThan(best) ? simple : best;
+        Grade full = alignAndGrade(ws, simple != null ? simple.refToFrame() : start,
+                simple != null ? Math.min(1, ref.levels - 1) : fromLevel, 8);
+        Grade pick;
+        if (simple == null) pick = full;
+        else if (full == null) pick = simple;
+        else if (full.rank() != simple.rank()) pick = full.rank() > simple.rank() ? full : simple;
+        else pick = full.rmsPx() < 0.7 * simple.rmsPx() ? full : simple;
+        if (pick == null) return best;
+        return pick.betterThan(best) ? pick : best;
+    }
+
+    private Grade alignAndGrade(Workspace ws, Homography start, int fromLevel, int model) {
+        ws.aligner.model = model;
         Homography h = ws.aligner.align(ref, ws.pyramid, start, fromLevel);
-        if (h == null) return best;
-        Grade g = evaluate(ws.pyramid, h, ws.aligner.converged);
-        return g.betterThan(best) ? g : best;
+        if (h == null) return null;
+        return evaluate(ws.pyramid, h, ws.aligner.converged);
+    }
+
+    /**
+     * Parts that heat change the picture until the reference no longer matches (texture from emissivity contrast
+     * fades and inverts as a surface passes the reflected temperature). Such a frame is registered to the last
+     * frame graded ok on this thread, which shares most of the heating, and the two mappings are composed; each
+     * link adds its own small error, so chains are only used when the direct mapping did not grade ok.
+     */
+    private FrameRegistration throughLastGood(Workspace ws, Frame frame) {
+        String name = ws.lastGood.fileName();
+        if (ws.chain == null || !name.equals(ws.chainName)) {
+            Homography boardToLast = ws.lastGoodRefToFrame.compose(ref.boardToReference).normalized();
+            double[][] corners = Homographies.boardCorners(ref.board, boardToLast);
+            org.risetrace.board.Board b = new org.risetrace.board.Board(ref.board.name(), ref.board.sizeMm(),
+                    new org.risetrace.board.Outline(name, corners, null), ref.board.parts(), ref.board.ambient());
+            try {
+                ws.chain = new DirectRegistrar(ReferenceModel.prepare(ws.lastGood, b, config.withMethod("search")),
+                        config.withMethod("auto"), false);
+            } catch (RuntimeException e) {
+                return null;
+            }
+            ws.chainName = name;
+        }
+        return ws.chain.register(frame);
+    }
+
+    private void remember(Workspace ws, Frame frame, Homography refToFrame) {
+        ws.previous = refToFrame;
+        ws.lastGood = frame;
+        ws.lastGoodRefToFrame = refToFrame;
     }
 
     private FrameRegistration finish(Frame frame, Workspace ws, Grade g) {
@@ -100,6 +173,7 @@ final class DirectRegistrar implements Registrar {
             return new FrameRegistration(frame.fileName(), frame.tSeconds(), RegistrationStatus.FAILED, g.reason(),
                     null, null, g.inliers(), g.rmsPx(), g.similarity());
         ws.previous = g.refToFrame();
+        if (g.status() == RegistrationStatus.OK) remember(ws, frame, g.refToFrame());
         Homography boardToFrame = g.refToFrame().compose(ref.boardToReference).normalized();
         return new FrameRegistration(frame.fileName(), frame.tSeconds(), g.status(), g.reason(), boardToFrame,
                 Homographies.boardCorners(ref.board, boardToFrame), g.inliers(), g.rmsPx(), g.similarity());
@@ -177,24 +251,37 @@ final class DirectRegistrar implements Registrar {
         int w = frame.widths[0], hh = frame.heights[0];
         double[] m = h.values();
         int n = ref.scoreX.length, valid = 0;
-        double sf = 0, sf2 = 0, sft = 0, st = 0, st2 = 0;
+        float[] fs = new float[n], diff = new float[n];
         for (int i = 0; i < n; i++) {
             double x = ref.scoreX[i], y = ref.scoreY[i];
             double z = m[6] * x + m[7] * y + m[8];
             float f = Filters.bilinear(img, w, hh, (m[0] * x + m[1] * y + m[2]) / z, (m[3] * x + m[4] * y + m[5]) / z);
-            if (f != f) continue;
-            float t = ref.scoreT[i];
-            valid++;
-            sf += f; sf2 += f * f; sft += f * t; st += t; st2 += t * t;
+            fs[i] = f;
+            if (f == f) diff[valid++] = f - ref.scoreT[i];
         }
         double visible = n == 0 ? 0 : valid / (double) n;
-        if (visible < config.minVisibleFraction())
+        if (visible < config.minVisibleFraction() || valid < 16)
             return new Grade(h, RegistrationStatus.FAILED, String.format(Locale.ROOT,
                     "only %.0f %% of the board inside the frame", 100 * visible), Double.NaN, Double.NaN, 0);
-        double vf = sf2 - sf * sf / valid, vt = st2 - st * st / valid;
-        double similarity = vf > 0 && vt > 0 ? (sft - sf * st / valid) / Math.sqrt(vf * vt) : 0;
-        double gain = vf > 0 ? Math.max(0.5, Math.min(2.0, Math.sqrt(vt / vf))) : 1;
-        double offset = (st - gain * sf) / valid;
+        double offset = DirectAligner.select(diff, valid, valid / 2);
+        for (int i = 0; i < valid; i++) diff[i] = Math.abs(diff[i] - (float) offset);
+        double sigma = 1.4826 * DirectAligner.select(diff, valid, valid / 2);
+        // similarity: normalised cross-correlation over the board pixels that did not change (residual within
+        // 3 robust standard deviations); the changed fraction is reported separately
+        double sf = 0, sf2 = 0, sft = 0, st = 0, st2 = 0;
+        int kept = 0;
+        for (int i = 0; i < n; i++) {
+            float f = fs[i];
+            if (f != f) continue;
+            float t = ref.scoreT[i];
+            if (Math.abs(f - t - offset) > 3 * sigma) continue;
+            kept++;
+            sf += f; sf2 += f * f; sft += f * t; st += t; st2 += t * t;
+        }
+        double changed = 1 - kept / (double) valid;
+        double vf = sf2 - sf * sf / Math.max(1, kept), vt = st2 - st * st / Math.max(1, kept);
+        double similarity = kept > 16 && vf > 0 && vt > 0 ? (sft - sf * st / kept) / Math.sqrt(vf * vt) : 0;
+        double gain = 1;
         // local patch check
         int checked = 0, agree = 0;
         double sum2 = 0;
@@ -209,7 +296,9 @@ final class DirectRegistrar implements Registrar {
         double fraction = checked > 0 ? agree / (double) checked : 0;
         StringBuilder weak = new StringBuilder();
         String fail = null;
-        if (similarity < config.failSimilarity())
+        if (changed > 0.5)
+            fail = String.format(Locale.ROOT, "%.0f %% of the board differs from the reference", 100 * changed);
+        else if (similarity < config.failSimilarity())
             fail = String.format(Locale.ROOT, "image similarity %.2f over the board is below %.2f: the frame does not "
                     + "match the reference", similarity, config.failSimilarity());
         else if (checked >= 3 && fraction < config.failInlierFraction())
@@ -223,6 +312,8 @@ final class DirectRegistrar implements Registrar {
         else if (fraction < config.okInlierFraction())
             weak.append(String.format(Locale.ROOT, "%d of %d check patches agree; ", agree, checked));
         if (rms > config.okRmsPx()) weak.append(String.format(Locale.ROOT, "check patches disagree by %.2f px RMS; ", rms));
+        if (changed > 0.25)
+            weak.append(String.format(Locale.ROOT, "%.0f %% of the board differs from the reference; ", 100 * changed));
         if (visible < 0.9) weak.append(String.format(Locale.ROOT, "%.0f %% of the board inside the frame; ", 100 * visible));
         if (!converged) weak.append("refinement did not settle; ");
         if (weak.length() > 0) {

@@ -14,7 +14,7 @@ import java.util.List;
  */
 final class ReferenceModel {
     /** Template pixels per level at most (the strongest gradients win). */
-    static final int MAX_TEMPLATE_PIXELS = 12000;
+    static final int MAX_TEMPLATE_PIXELS = 5000;
     /** Score pixels at full resolution at most (a regular subsample of the board). */
     static final int MAX_SCORE_PIXELS = 8000;
     /** Check patches on a GRID x GRID lattice over the board. */

@@ -200,6 +200,8 @@ public final class ReportHtml {
                             + (hotspots.stream().anyMatch(s -> s.ref() == null)
                             ? "; cyan rings are on no marked part." : "."));
         }
+        if (rise != null && !hasFinite(rise.values()))
+            h.append("<p class=\"blank\">Rise map: no point of the board has a rise value.</p>\n");
         BoardMap onset = a.onsetMap();
         if (onset != null && hasFinite(onset.values())) {
             double[] range = percentiles(onset.values(), 0.0, 1.0);

@@ -9,7 +9,6 @@ import org.risetrace.board.Part;
 import org.risetrace.io.Sidecar;
 import org.risetrace.io.write.FrameEncoding;
 import org.risetrace.io.write.FrameWriters;
-import org.risetrace.registration.Homography;
 
 import java.io.IOException;
 import java.io.UncheckedIOException;
@@ -49,9 +48,19 @@ public final class Simulator {
                    double loC, double hiC, Truth.Energy energy, BoardModel model) {
     }
 
+    /** Receives each frame's thermal state as soon as the heat model has reached the frame's time. */
+    interface FrameSink {
+        void accept(int frame, float[] cellsC, double[] partsC, double ambientC);
+    }
+
     /** Runs the heat model and samples it at the frame times (no camera). */
     static History thermal(Scenario s) {
-        BoardModel bm = new BoardModel(s);
+        return thermal(s, null, null);
+    }
+
+    /** As {@link #thermal(Scenario)}, reusing a board model and handing each frame to {@code sink} (may be null). */
+    static History thermal(Scenario s, BoardModel given, FrameSink sink) {
+        BoardModel bm = given != null ? given : new BoardModel(s);
         ThermalModel tm = bm.model;
         int cells = bm.nx * bm.ny, nParts = bm.parts.size(), n = s.frames().count();
         double amb0 = bm.ambientAt(0);
@@ -93,6 +102,7 @@ public final class Simulator {
             hi = Math.max(hi, ambient[k]);
             cellSnap[k] = c;
             partSnap[k] = p;
+            if (sink != null) sink.accept(k, c, p, ambient[k]);
         }
         Truth.Energy energy = new Truth.Energy(tm.injectedJ(), tm.storedJ(initial), tm.lostJ());
         return new History(tS, cellSnap, partSnap, ambient, powerW, lo, hi, energy, bm);
@@ -105,23 +115,24 @@ public final class Simulator {
         } catch (IOException e) {
             throw new UncheckedIOException("cannot create " + outDir, e);
         }
-        History hist = thermal(s);
-        BoardModel bm = hist.model();
+        BoardModel bm = new BoardModel(s);
         Renderer renderer = new Renderer(s, bm);
-        double netd = s.camera().netdOrDefault() + s.camera().fixedPatternOrDefault();
-        renderer.prepare(hist.loC() - 6 * netd, hist.hiC() + 6 * netd);
+        // apparent-temperature tables from 20 K below to 60 K above ambient; they grow when a part gets hotter
+        double amb0 = bm.ambientAt(0);
+        renderer.prepare(amb0 - 20, amb0 + 60);
 
         int n = s.frames().count();
         double wMm = s.board().widthMm(), hMm = s.board().heightMm();
-        Homography base = CameraModel.basePose(s.camera(), wMm, hMm);
-        Homography[] motion = CameraModel.motions(s.camera(), n, s.seed());
-        Homography[] boardToFrame = new Homography[n];
+        PlaneMapping base = CameraModel.basePose(s.camera(), wMm, hMm);
+        PlaneMapping[] motion = CameraModel.motions(s.camera(), n, s.seed());
+        PlaneMapping[] boardToFrame = new PlaneMapping[n];
         for (int k = 0; k < n; k++) boardToFrame[k] = motion[k].compose(base);
 
         FrameEncoding enc = s.camera().encodingOrDefault();
         String[] names = new String[n];
         for (int k = 0; k < n; k++) names[k] = String.format(java.util.Locale.ROOT, "f%04d.%s", k + 1, enc.extension());
         double[][] spans = new double[n][];
+        java.time.Instant exifStart = s.camera().exifStart() == null ? null : java.time.Instant.parse(s.camera().exifStart());
         int threads = Math.max(1, Math.min(2, Runtime.getRuntime().availableProcessors()));
         ExecutorService pool = Executors.newFixedThreadPool(threads, r -> {
             Thread th = new Thread(r, "risetrace-render");
@@ -130,21 +141,23 @@ public final class Simulator {
         });
         ThreadLocal<Renderer.Buffers> buffers = ThreadLocal.withInitial(renderer::buffers);
         List<Future<?>> jobs = new ArrayList<>();
-        for (int k0 = 0; k0 < n; k0++) {
-            final int k = k0;
-            jobs.add(pool.submit(() -> {
-                Renderer.Buffers buf = buffers.get();
-                renderer.render(hist.cellsC()[k], hist.partsC()[k], hist.ambientC()[k], boardToFrame[k],
-                        noiseSeed(s.seed(), k), buf);
-                double[] span = null;
-                if (enc == FrameEncoding.U8_SPAN_PNG) {
-                    span = s.camera().autoSpanOrFalse() ? autoSpan(buf.image) : s.camera().spanC().clone();
-                    spans[k] = span;
-                }
-                FrameWriters.write(outDir.resolve(names[k]), enc, renderer.width, renderer.height, buf.image, span);
-            }));
-        }
+        // the heat model runs on this thread; each frame is rendered and written on the pool as soon as it is ready
+        FrameSink sink = (k, cellsC, partsC, ambientC) -> jobs.add(pool.submit(() -> {
+            Renderer.Buffers buf = buffers.get();
+            renderer.render(cellsC, partsC, ambientC, boardToFrame[k], noiseSeed(s.seed(), k), buf);
+            double[] span = null;
+            if (enc == FrameEncoding.U8_SPAN_PNG) {
+                span = s.camera().autoSpanOrFalse() ? autoSpan(buf.image) : s.camera().spanC().clone();
+                spans[k] = span;
+            }
+            Path file = outDir.resolve(names[k]);
+            FrameWriters.write(file, enc, renderer.width, renderer.height, buf.image, span);
+            if (exifStart != null && enc.extension().equals("tif"))
+                FrameWriters.addExifTime(file, exifStart.plusNanos(Math.round(k * s.frames().intervalS() * 1e9)));
+        }));
+        History hist;
         try {
+            hist = thermal(s, bm, sink);
             for (Future<?> f : jobs) f.get();
         } catch (InterruptedException e) {
             Thread.currentThread().interrupt();

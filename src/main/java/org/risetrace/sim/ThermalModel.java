@@ -28,6 +28,9 @@ public final class ThermalModel {
     /** Current temperatures, degrees Celsius. */
     final double[] temperature;
 
+    /** Residual reduction per solve; the temperature error is this fraction of the step's change. */
+    static final double RELATIVE_TOLERANCE = 1e-6;
+
     private double injectedJ, lostJ;
     private int lastIterations;
     private final double[] r, z, p, ap, rhs, diag;
@@ -166,13 +169,15 @@ public final class ThermalModel {
         buildDiagonal(invDt);
         double[] x = temperature;
         multiply(invDt, x, ap);
-        double bnorm = 0;
+        double bnorm = 0, r0 = 0;
         for (int i = 0; i < nodes; i++) {
             r[i] = rhs[i] - ap[i];
             bnorm += rhs[i] * rhs[i];
+            r0 += r[i] * r[i];
         }
-        bnorm = Math.sqrt(bnorm);
-        double tol = 1e-10 * Math.max(bnorm, 1e-30);
+        // stop when the residual has fallen by RELATIVE_TOLERANCE from the warm start (the step's own change),
+        // or below a floor relative to the right-hand side (no change at all)
+        double tol = Math.max(RELATIVE_TOLERANCE * Math.sqrt(r0), 1e-13 * Math.sqrt(bnorm));
         double rz = 0;
         for (int i = 0; i < nodes; i++) {
             z[i] = r[i] / diag[i];

@@ -4,7 +4,6 @@ import com.fasterxml.jackson.annotation.JsonIgnoreProperties;
 import com.fasterxml.jackson.annotation.JsonInclude;
 import com.fasterxml.jackson.annotation.JsonProperty;
 import org.risetrace.frame.InputRejected;
-import org.risetrace.registration.Homography;
 
 import java.io.IOException;
 import java.nio.file.Path;
@@ -69,7 +68,7 @@ public record Truth(
                              @JsonProperty("ambient_c") double ambientC, @JsonProperty("power_w") double powerW,
                              @JsonProperty("board_corners_px") double[][] boardCornersPx,
                              @JsonProperty("board_to_frame") double[][] boardToFrame) {
-        public Homography homography() { return Homography.fromRows(boardToFrame); }
+        public PlaneMapping homography() { return PlaneMapping.fromRows(boardToFrame); }
     }
 
     /** A part left out of board.json: where it is. */

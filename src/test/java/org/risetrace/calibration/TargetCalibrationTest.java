@@ -62,6 +62,7 @@ class TargetCalibrationTest {
         assertEquals(-0.8 / 1.015, r.profile().offset(), 0.05);
         // noise of 0.05 K averaged over 128 pixels: residuals far below the NETD
         assertTrue(r.maxResidualK() < 0.02, "residuals " + r.maxResidualK());
+        assertTrue(r.notes().isEmpty(), r.notes().toString());
 
         Path written = ProfileWriter.write(r, dir, false).get(0);
         Profile loaded = Profiles.load(written.toString());
@@ -94,6 +95,9 @@ class TargetCalibrationTest {
         CalibrationResult r = TargetCalibration.fit(CENTIKELVIN, pts, CalibrationModel.SAKUMA_HATTORI, "raw-cam");
         // Sakuma-Hattori interpolates band radiance to millikelvins (its purpose: Sakuma and Hattori 1982)
         for (double res : r.residualK()) assertEquals(0, res, 0.01);
+        // band radiance grows about as T^4.7 near 300 K in this band (Planck), so over 60 K no straight line follows it: the user is told
+        assertTrue(r.linearisationMaxErrorK() > 0.5, "linearisation " + r.linearisationMaxErrorK());
+        assertTrue(r.notes().stream().anyMatch(n -> n.contains("straight line departs")), r.notes().toString());
         // the linear profile is an approximation: the reported error bounds the profile's residuals
         for (double res : r.profileResidualK()) assertTrue(Math.abs(res) <= r.linearisationMaxErrorK() + 0.01);
         List<Path> files = ProfileWriter.write(r, dir, false);
@@ -138,6 +142,35 @@ class TargetCalibrationTest {
         assertThrows(InputRejected.class, () -> TargetCalibration.fit(CENTIKELVIN, swapped, CalibrationModel.GAIN_OFFSET, "x"));
         assertThrows(InputRejected.class, () -> TargetCalibration.fit(Profiles.load("f32-celsius"),
                 swapped, CalibrationModel.OFFSET, "x"));
+    }
+
+    @Test
+    void oneTargetHeatedInTurnIsReadInItsOwnFrames() {
+        // one block at 30, 60 and 90 C in three frames: each target names its frame, the others are not averaged in
+        int[][] box = {BOXES[0]};
+        List<Frame> frames = List.of(frame("t30.pgm", 22, new double[]{30}, box, 0.0, 1),
+                frame("t60.pgm", 22, new double[]{60}, box, 0.0, 2), frame("t90.pgm", 22, new double[]{90}, box, 0.0, 3));
+        List<ReferenceTarget> t = List.of(ReferenceTarget.parse("4,4,8,8=30@t30.pgm"),
+                ReferenceTarget.parse("4,4,8,8=60@t60.pgm"), ReferenceTarget.parse("4,4,8,8=90@t90.pgm"));
+        CalibrationResult r = TargetCalibration.calibrate(frames, t, CENTIKELVIN, CalibrationModel.GAIN_OFFSET, "turns");
+        assertEquals(64, r.points().get(1).pixels());
+        // noise-free counts rounded to whole counts of 0.01 K: residuals within a count
+        assertTrue(r.maxResidualK() < 0.01, "residuals " + r.maxResidualK());
+        assertEquals(0.01 / 1.015, r.profile().gain(), 1e-6);
+    }
+
+    @Test
+    void misplacedTargetsAndAnImplausibleCurveAreNoted() {
+        // a region half on the 30 C target and half on the 22 C background
+        List<Frame> frames = List.of(frame("a.pgm", 22, KNOWN, BOXES, 0.05, 1));
+        List<ReferenceTarget> t = new ArrayList<>(targets());
+        t.set(0, new ReferenceTarget(0, 4, 8, 8, 30, null));
+        CalibrationResult r = TargetCalibration.calibrate(frames, t, CENTIKELVIN, CalibrationModel.GAIN_OFFSET, "x");
+        assertTrue(r.notes().stream().anyMatch(n -> n.contains("not uniform")), r.notes().toString());
+        assertTrue(r.notes().stream().anyMatch(n -> n.contains("exceed 3 x NETD")), r.notes().toString());
+        // counts linear in temperature are not radiance: the Sakuma-Hattori curve's wavelength runs off the band
+        CalibrationResult sh = TargetCalibration.calibrate(frames, targets(), CENTIKELVIN, CalibrationModel.SAKUMA_HATTORI, "y");
+        assertTrue(sh.notes().stream().anyMatch(n -> n.contains("effective wavelength")), sh.notes().toString());
     }
 
     @Test

@@ -37,8 +37,9 @@ class FixtureTest {
     @Test
     void everySixteenBitFixtureGivesThePatternCounts() throws IOException {
         List<Path> files = fixtures("u16-");
-        // 16 TIFF (4 compressions x strips/tiles x 2 byte orders) + 2 with predictor + 2 PNG + 3 PGM
-        assertEquals(23, files.size(), files.toString());
+        // 16 TIFF (4 compressions x strips/tiles x 2 byte orders) + 2 partial strip/tile + 2 with predictor
+        // + 2 PNG + 3 PGM
+        assertEquals(25, files.size(), files.toString());
         for (Path f : files) {
             Frame frame = FrameReaders.read(f, ReadContext.of(Profiles.load("u16-centikelvin")));
             assertEquals(64, frame.width(), f.toString());
@@ -97,5 +98,14 @@ class FixtureTest {
                     assertEquals(expected, frame.at(x, y), tol, name + " pixel " + x + "," + y);
                 }
         }
+    }
+
+    @Test
+    void colourGradientFromImageMagickIsRefused() {
+        org.risetrace.frame.InputRejected e = org.junit.jupiter.api.Assertions.assertThrows(
+                org.risetrace.frame.InputRejected.class,
+                () -> FrameReaders.read(fixture("colour-gradient.png"), ReadContext.defaults()));
+        assertTrue(e.getMessage().contains("colour-gradient.png")
+                && e.getMessage().contains("colour palette image: export radiometric or greyscale frames"), e.getMessage());
     }
 }

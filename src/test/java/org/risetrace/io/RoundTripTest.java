@@ -132,4 +132,15 @@ class RoundTripTest {
         org.junit.jupiter.api.Assertions.assertArrayEquals(png.celsius(), tif.celsius());
         for (int i = 0; i < png.celsius().length; i++) assertEquals(png.celsius()[i], mat.celsius()[i], 1e-4);
     }
+
+    @Test
+    void frameHashIsTheSha256OfTheFileBytes() throws Exception {
+        // FIPS 180-2 appendix B.1 example: SHA-256("abc")
+        assertEquals("ba7816bf8f01cfea414140de5dae2223b00361a396177a9cb410ff61f20015ad",
+                FrameReaders.sha256("abc".getBytes(java.nio.charset.StandardCharsets.US_ASCII)));
+        Path file = TestImages.write(TestImages.ushortGrey(16, 12), "png", dir.resolve("h.png"));
+        byte[] bytes = java.nio.file.Files.readAllBytes(file);
+        String expected = java.util.HexFormat.of().formatHex(java.security.MessageDigest.getInstance("SHA-256").digest(bytes));
+        assertEquals(expected, FrameReaders.read(file, ReadContext.defaults()).sha256());
+    }
 }

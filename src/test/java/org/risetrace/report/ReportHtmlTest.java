@@ -131,6 +131,23 @@ class ReportHtmlTest {
         assertTrue(yTop < yBottom, "y axis inverted: smaller board y is higher on the page");
     }
 
+    @Test
+    void fineMapsAreAveragedIntoAtMost240BlocksAcross() {
+        int w = 1000, h = 500;  // 100 x 50 mm at 10 px/mm
+        float[] v = new float[w * h];
+        for (int i = 0; i < v.length; i++) v[i] = (i % w) < w / 2 ? 1f : 3f;
+        JFreeChart chart = Plots.mapChart(new Plots.Grid(w, h, 10.0, v, 100, 50),
+                new Plots.Shading(ColourMaps.EMBER, 0, 3, false, "K"), List.of(), null);
+        org.jfree.data.xy.XYZDataset data = (org.jfree.data.xy.XYZDataset) chart.getXYPlot().getDataset();
+        int bin = (int) Math.ceil(w / (double) Plots.MAX_BLOCKS_ACROSS);  // 5 px per block
+        assertEquals(((w + bin - 1) / bin) * ((h + bin - 1) / bin), data.getItemCount(0));
+        // a bin's value is the mean of its pixels: the bins left of x = 50 mm hold 1 K, right of it 3 K
+        for (int k = 0; k < data.getItemCount(0); k++) {
+            double x = data.getXValue(0, k), z = data.getZValue(0, k);
+            assertEquals(x < 50 ? 1.0 : 3.0, z, 1e-6, "bin at x = " + x);
+        }
+    }
+
     private static int[] pixelAt(BufferedImage img, XYPlot plot, Rectangle2D area, double xMm, double yMm) {
         int px = (int) Math.round(plot.getDomainAxis().valueToJava2D(xMm, area, RectangleEdge.BOTTOM));
         int py = (int) Math.round(plot.getRangeAxis().valueToJava2D(yMm, area, RectangleEdge.LEFT));

@@ -91,4 +91,36 @@ class SimulatorTest {
         assertTrue(e.getMessage().contains("bad.json") && e.getMessage().contains("sede") && e.getMessage().contains("line 3"),
                 e.getMessage());
     }
+
+    @Test
+    void rejectsSharesThatDoNotSumToOneNamingTheField() {
+        Scenario s = Scenarios.small().withSources(java.util.List.of(new Scenario.SourceShare("Q1", 0.5)));
+        var e = org.junit.jupiter.api.Assertions.assertThrows(org.risetrace.frame.InputRejected.class,
+                () -> s.validate(Path.of("x.json")));
+        assertTrue(e.getMessage().contains("x.json") && e.getMessage().contains("fault.sources"), e.getMessage());
+        Scenario t = Scenarios.small().withSources(java.util.List.of(new Scenario.SourceShare("Q99", 1.0)));
+        var e2 = org.junit.jupiter.api.Assertions.assertThrows(org.risetrace.frame.InputRejected.class,
+                () -> t.validate(Path.of("x.json")));
+        assertTrue(e2.getMessage().contains("Q99"), e2.getMessage());
+    }
+
+    /** Starting from the idle steady state, a board with idle power but no fault stays where it is. */
+    @Test
+    void idleSteadyStartStaysSteadyWithoutInjection() {
+        Scenario base = Scenarios.small(0.0);
+        java.util.List<Scenario.PartSpec> parts = new java.util.ArrayList<>(base.board().partsOrEmpty());
+        Scenario.PartSpec u1 = parts.get(parts.size() - 1);
+        parts.set(parts.size() - 1, new Scenario.PartSpec(u1.ref(), u1.kind(), u1.material(), u1.xMm(), u1.yMm(),
+                u1.wMm(), u1.hMm(), null, null, null, null, null, u1.leads(), null, 0.3));
+        Scenario.BoardSpec b = base.board().withParts(parts);
+        Scenario s = base.withBoard(new Scenario.BoardSpec(b.name(), b.sizeMm(), b.thicknessMm(), b.copperLayers(),
+                b.cellMm(), b.hConvWPerM2K(), null, null, "idle-steady", b.parts(), b.traces(), b.holes()));
+        Simulator.History h = Simulator.thermal(s);
+        int last = h.tS().length - 1;
+        double u1Rise = h.partsC()[0][parts.size() - 1] - 23.0;
+        assertTrue(u1Rise > 1.0, "idle power warms U1 at the start: " + u1Rise);
+        for (int p = 0; p < parts.size(); p++) assertEquals(h.partsC()[0][p], h.partsC()[last][p], 1e-4);
+        // steady state: all idle power leaves through the faces, nothing is stored
+        assertEquals(h.energy().injectedJ(), h.energy().lostJ(), 1e-3 * h.energy().injectedJ());
+    }
 }

@@ -2,6 +2,15 @@ package org.risetrace.io.write;
 
 import org.risetrace.calibration.Profile;
 
+import org.apache.commons.imaging.ImagingException;
+import org.apache.commons.imaging.Imaging;
+import org.apache.commons.imaging.common.ImageMetadata;
+import org.apache.commons.imaging.formats.tiff.TiffImageMetadata;
+import org.apache.commons.imaging.formats.tiff.constants.ExifTagConstants;
+import org.apache.commons.imaging.formats.tiff.write.TiffImageWriterLossless;
+import org.apache.commons.imaging.formats.tiff.write.TiffOutputDirectory;
+import org.apache.commons.imaging.formats.tiff.write.TiffOutputSet;
+
 import javax.imageio.IIOImage;
 import javax.imageio.ImageIO;
 import javax.imageio.ImageWriteParam;
@@ -20,11 +29,16 @@ import java.awt.image.PixelInterleavedSampleModel;
 import java.awt.image.Raster;
 import java.awt.image.SampleModel;
 import java.awt.image.WritableRaster;
+import java.io.ByteArrayOutputStream;
 import java.io.IOException;
 import java.io.UncheckedIOException;
 import java.nio.file.Files;
 import java.nio.file.Path;
+import java.time.Instant;
+import java.time.ZoneOffset;
+import java.time.format.DateTimeFormatter;
 import java.util.Iterator;
+import java.util.Locale;
 
 /**
  * Writes temperature rasters (degrees Celsius, row-major) in the supported encodings through the JDK's ImageIO
@@ -68,6 +82,37 @@ public final class FrameWriters {
                 writeImage(file, grey8(width, height, levels), "png");
             }
             default -> throw new IllegalArgumentException(encoding.toString());
+        }
+    }
+
+    /** EXIF date-time layout "YYYY:MM:DD HH:MM:SS" (CIPA DC-008, DateTimeOriginal). */
+    private static final DateTimeFormatter EXIF_DATE = DateTimeFormatter.ofPattern("yyyy:MM:dd HH:mm:ss", Locale.ROOT)
+            .withZone(ZoneOffset.UTC);
+
+    /**
+     * Adds EXIF DateTimeOriginal (in UTC) and SubSecTimeOriginal (milliseconds, three digits) to a TIFF file written
+     * by {@link #write}, through Apache Commons Imaging's lossless TIFF rewriter (the image data is kept as it is;
+     * CIPA DC-008 tags 0x9003 and 0x9291).
+     */
+    public static void addExifTime(Path tiffFile, Instant instant) {
+        try {
+            byte[] original = Files.readAllBytes(tiffFile);
+            ImageMetadata md = Imaging.getMetadata(original);
+            if (!(md instanceof TiffImageMetadata tiff)) throw new IllegalArgumentException("not a TIFF: " + tiffFile);
+            TiffOutputSet set = tiff.getOutputSet();
+            TiffOutputDirectory exif = set.getOrCreateExifDirectory();
+            long millis = Math.floorMod(instant.toEpochMilli(), 1000L);
+            exif.removeField(ExifTagConstants.EXIF_TAG_DATE_TIME_ORIGINAL);
+            exif.add(ExifTagConstants.EXIF_TAG_DATE_TIME_ORIGINAL, EXIF_DATE.format(instant));
+            exif.removeField(ExifTagConstants.EXIF_TAG_SUB_SEC_TIME_ORIGINAL);
+            exif.add(ExifTagConstants.EXIF_TAG_SUB_SEC_TIME_ORIGINAL, String.format(Locale.ROOT, "%03d", millis));
+            ByteArrayOutputStream out = new ByteArrayOutputStream(original.length + 512);
+            new TiffImageWriterLossless(set.byteOrder, original).write(out, set);
+            Files.write(tiffFile, out.toByteArray());
+        } catch (ImagingException e) {
+            throw new IllegalStateException("cannot add EXIF to " + tiffFile + ": " + e.getMessage(), e);
+        } catch (IOException e) {
+            throw new UncheckedIOException("cannot add EXIF to " + tiffFile, e);
         }
     }
 

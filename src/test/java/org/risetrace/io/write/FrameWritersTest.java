@@ -96,4 +96,20 @@ class FrameWritersTest {
         assertEquals(w * h, FrameWriters.grey8(w, h, new byte[w * h]).getWidth() * h);
         Files.deleteIfExists(f);
     }
+
+    @Test
+    void exifTimeIsReadBackByTheImportStageAndPixelsStayIntact() throws IOException {
+        int w = 12, h = 7;
+        float[] t = raster(w, h);
+        Path f = dir.resolve("e.tif");
+        FrameWriters.write(f, FrameEncoding.F32_TIFF, w, h, t, null);
+        java.time.Instant when = java.time.Instant.parse("2026-11-30T14:05:30.250Z");
+        FrameWriters.addExifTime(f, when);
+        // the import stage's EXIF reader (DateTimeOriginal + SubSecTimeOriginal, CIPA DC-008)
+        org.risetrace.io.CaptureTimes.CaptureTime ct = org.risetrace.io.CaptureTimes.read(f);
+        assertEquals(when, ct.instant());
+        assertEquals("EXIF DateTimeOriginal", ct.tag());
+        Raster r = ImageIO.read(f.toFile()).getRaster();
+        for (int i = 0; i < t.length; i++) assertEquals(t[i], r.getSampleFloat(i % w, i / w, 0), 0.0);
+    }
 }

@@ -29,7 +29,7 @@ public record AnalysisOptions(Integer baselineFrames, double kSigma, int onsetFr
                               double ambientBandMm, Double pxPerMm) {
 
     public static AnalysisOptions defaults() {
-        return new AnalysisOptions(null, 3.0, 2, 30.0, 6, 3.0, 5, 5.0, 1.0, 10, 0.25, 1.0, 3.0, null);
+        return new AnalysisOptions(null, 3.0, 2, 30.0, 12, 3.0, 5, 5.0, 1.0, 10, 0.25, 1.0, 3.0, null);
     }
 
     public AnalysisOptions {

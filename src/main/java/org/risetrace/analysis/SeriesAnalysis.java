@@ -144,17 +144,27 @@ public final class SeriesAnalysis {
 
         // per part: object temperatures, weights, how far registration and resampling alone can move each reading
         float[] baseMean = maps.baselineMean();
-        // how far the sampling phase can wander: the largest displacement of the board centre in the frame since
-        // the first frame after the injection start (frame px converted to board px); relative to half a pixel it
-        // scales each footprint's half-pixel sensitivity
+        // how far the sampling phase can wander: the displacement of the board centre in the frame over the frames
+        // after the injection start (frame px converted to board px); relative to half a pixel it scales each
+        // footprint's half-pixel sensitivity
         double boardPxPerFramePx = Double.isFinite(framePxPerMm) && framePxPerMm > 0 ? maps.pxPerMm() / framePxPerMm : 1;
+        List<double[]> centres = new ArrayList<>();
+        for (int i = 0; i < n; i++)
+            if (t[i] > plan.tStartS() && mappings.get(i) != null)
+                centres.add(mappings.get(i).apply(board.widthMm() / 2, board.heightMm() / 2));
+        // systematic wander only: mean position of the first three frames against that of the last three, so the
+        // frame-to-frame scatter of the mapping (already in the fit's residuals) does not count twice
         double drift = 0;
-        double[] ref = null;
-        for (int i = 0; i < n; i++) {
-            if (t[i] <= plan.tStartS() || mappings.get(i) == null) continue;
-            double[] c = mappings.get(i).apply(board.widthMm() / 2, board.heightMm() / 2);
-            if (ref == null) ref = c;
-            else drift = Math.max(drift, Math.hypot(c[0] - ref[0], c[1] - ref[1]));
+        if (centres.size() >= 2) {
+            int m = Math.min(3, centres.size() / 2);
+            double ax = 0, ay = 0, bx = 0, by = 0;
+            for (int i = 0; i < m; i++) {
+                ax += centres.get(i)[0] / m;
+                ay += centres.get(i)[1] / m;
+                bx += centres.get(centres.size() - 1 - i)[0] / m;
+                by += centres.get(centres.size() - 1 - i)[1] / m;
+            }
+            drift = Math.hypot(bx - ax, by - ay);
         }
         // (a weak frame's residual is scatter from frame to frame, which the rate fit's residuals already measure;
         // only the wander of the mapping itself biases a rate)

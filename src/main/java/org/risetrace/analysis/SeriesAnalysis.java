@@ -26,6 +26,9 @@ public final class SeriesAnalysis {
                           Double reflectedC, String version, String ambientSource) {
     }
 
+    /** Lower bound of an emissivity range (e - u can reach zero in the table, where the correction diverges). */
+    static final double MIN_EMISSIVITY = 0.01;
+
     private final Board board;
     private final List<Part> parts;
     private final AnalysisOptions options;
@@ -134,14 +137,6 @@ public final class SeriesAnalysis {
         for (boolean w : weak) if (w) weakCount++;
         double ambBase = PartCurve.meanFinite(amb, 0, Math.max(1, baselineUsed));
 
-        // rise map and hot spots
-        double sigmaBoardPx = Double.isFinite(framePxPerMm) && framePxPerMm > 0
-                ? options.blurPx() * maps.pxPerMm() / framePxPerMm : options.blurPx();
-        Hotspots.Smoothed sm = Hotspots.smoothed(maps.riseMap(), maps.width(), maps.height(), maps.pxPerMm(),
-                sigmaBoardPx, "K");
-        double minSepPx = Math.max(2.0, 1.0 * maps.pxPerMm());
-        List<Hotspot> hotspots = Hotspots.find(sm, options.hotspotKSigma(), minSepPx, options.maxHotspots(), parts);
-
         // per part: object temperatures, weights, how far registration and resampling alone can move each reading
         float[] baseMean = maps.baselineMean();
         // how far the sampling phase can wander: the displacement of the board centre in the frame over the frames
@@ -171,6 +166,10 @@ public final class SeriesAnalysis {
         double positionScale = drift * boardPxPerFramePx / 0.5;
         this.positionScale = positionScale;
         EmissivityModel.Emissivity[] eps = new EmissivityModel.Emissivity[np];
+        double[] gain = new double[np], lowScale = new double[np], highScale = new double[np];
+        Arrays.fill(lowScale, 1.0);
+        Arrays.fill(highScale, 1.0);
+        double reflectedUsed = Double.NaN;
         double[][] ys = new double[np][], ws = new double[np][];
         double[] meanValid = new double[np], positionErrorK = new double[np];
         for (int p = 0; p < np; p++) {
@@ -186,6 +185,16 @@ public final class SeriesAnalysis {
             }
             double refl = Double.isFinite(reflected) ? reflected : lo;
             CorrectionTable table = Double.isFinite(lo) ? new CorrectionTable(emissivity, eps[p].value(), refl, lo, hi) : null;
+            gain[p] = table == null ? 1.0 : table.gain();
+            reflectedUsed = refl;
+            if (table != null && eps[p].uncertainty() > 0) {
+                // the same correction at the ends of the plausible emissivity range: a rise scales with the
+                // correction's gain, so the rate at e +/- u is the nominal rate times the ratio of gains
+                double eHigh = Math.min(1.0, eps[p].value() + eps[p].uncertainty());
+                double eLow = Math.max(MIN_EMISSIVITY, eps[p].value() - eps[p].uncertainty());
+                lowScale[p] = new CorrectionTable(emissivity, eHigh, refl, lo, hi).gain() / gain[p];
+                highScale[p] = new CorrectionTable(emissivity, eLow, refl, lo, hi).gain() / gain[p];
+            }
             for (int i = 0; i < n; i++) {
                 double[] s = stats.get(i);
                 double app = s[p * FootprintSampler.STATS + FootprintSampler.P95];
@@ -213,21 +222,33 @@ public final class SeriesAnalysis {
                         positionErrorK[p], options);
         this.windowUsedS = windowS;
 
+        // rise map and hot spots, on object temperatures: each part's footprint scaled by its correction's gain,
+        // the rest of the board by the gain at the default emissivity
+        float[] riseMap = correctedRiseMap(maps.riseMap(), baseMean, gain, ambBase);
+        double sigmaBoardPx = Double.isFinite(framePxPerMm) && framePxPerMm > 0
+                ? options.blurPx() * maps.pxPerMm() / framePxPerMm : options.blurPx();
+        Hotspots.Smoothed sm = Hotspots.smoothed(riseMap, maps.width(), maps.height(), maps.pxPerMm(),
+                sigmaBoardPx, "K");
+        double minSepPx = Math.max(2.0, 1.0 * maps.pxPerMm());
+        List<Hotspot> hotspots = Hotspots.find(sm, options.hotspotKSigma(), minSepPx, options.maxHotspots(), parts);
+        // a spot within two blur sigmas of a footprint is that part's heat spread by the optics, not an unmarked part
+        double blurMarginMm = 2 * sigmaBoardPx / maps.pxPerMm();
+
         List<Verdicts.Candidate> candidates = new ArrayList<>();
         double[] rateSe = new double[np];
         for (int p = 0; p < np; p++) {
             Part part = parts.get(p);
             LineFit rate = curves[p].rate();
-            // the rise in object temperature scales about as 1/e, so the rate's relative error grows by de/e
-            rateSe[p] = rate == null ? Double.NaN
-                    : Math.hypot(rate.slopeSe(), rate.slope() * eps[p].uncertainty() / eps[p].value());
+            // noise and position error only: the emissivity uncertainty is a scale error, carried separately as
+            // the rates at e + u and e - u (lowScale, highScale) and applied in the separation test (Verdicts)
+            rateSe[p] = rate == null ? Double.NaN : rate.slopeSe();
             float peak = Float.NaN;
             for (int k : footprints.indices(p)) {
                 float v = sm.map().values()[k];
                 if (!Float.isNaN(v) && (Float.isNaN(peak) || v > peak)) peak = v;
             }
             candidates.add(new Verdicts.Candidate(part.ref(), rate == null ? null : rate.slope(),
-                    rate == null ? null : rateSe[p], curves[p].onsetS() != null, peak));
+                    rate == null ? null : rateSe[p], curves[p].onsetS() != null, peak, lowScale[p], highScale[p]));
         }
         Integer[] order = new Integer[np];
         for (int p = 0; p < np; p++) order[p] = p;
@@ -237,7 +258,7 @@ public final class SeriesAnalysis {
         }));
         List<Verdicts.Candidate> ranked = new ArrayList<>();
         for (Integer p : order) ranked.add(candidates.get(p));
-        Verdict verdict = Verdicts.decide(ranked, hotspots, sm.sigma(), weakCount, n, options);
+        Verdict verdict = Verdicts.decide(ranked, hotspots, sm.sigma(), weakCount, n, options, "K/s", parts, blurMarginMm);
 
         List<PartResult> results = new ArrayList<>();
         List<RiseCurve> riseCurves = new ArrayList<>();
@@ -251,6 +272,11 @@ public final class SeriesAnalysis {
             if (eps[p].value() < 0.5)
                 warnings.add("emissivity " + eps[p].value() + " (" + part.material()
                         + "): reading unreliable: cover with high-emissivity tape and capture again");
+            if (rate != null && (lowScale[p] != 1.0 || highScale[p] != 1.0))
+                warnings.add(String.format(java.util.Locale.ROOT,
+                        "emissivity %.2f ± %.2f: the rate lies between %.4f and %.4f K/s over that range",
+                        eps[p].value(), eps[p].uncertainty(), rate.slope() * Math.min(lowScale[p], highScale[p]),
+                        rate.slope() * Math.max(lowScale[p], highScale[p])));
             if (meanValid[p] < 0.9)
                 warnings.add(String.format(java.util.Locale.ROOT,
                         "partly outside the frame: on average %.0f %% of the footprint was visible", 100 * meanValid[p]));
@@ -264,6 +290,44 @@ public final class SeriesAnalysis {
                     fit == null ? null : fit.tauS(), fit == null ? null : fit.dtInfK()));
         }
         return new Analysis(result(verdict, results, hotspots), board, riseCurves, sm.map(), maps.onsetMap(), lastRaster);
+    }
+
+    /**
+     * The apparent rise map turned into object-temperature rises: a rise scales with the emissivity correction's gain
+     * (object kelvin per apparent kelvin), so each pixel of a part's footprint is multiplied by that part's gain
+     * (the smallest part wins where footprints overlap), every other pixel by the gain at the default emissivity.
+     */
+    private float[] correctedRiseMap(float[] rise, float[] baseMean, double[] gain, double ambBase) {
+        double lo = Double.POSITIVE_INFINITY, hi = Double.NEGATIVE_INFINITY;
+        for (int k = 0; k < baseMean.length; k++)
+            if (!Float.isNaN(baseMean[k]) && !Float.isNaN(rise[k])) {
+                lo = Math.min(lo, baseMean[k]);
+                hi = Math.max(hi, baseMean[k] + Math.max(0, rise[k]));
+            }
+        if (!Double.isFinite(lo)) return rise;
+        double reflected = context.reflectedC() != null ? context.reflectedC() : Double.isFinite(ambBase) ? ambBase : lo;
+        EmissivityModel.Emissivity e0 = emissivity.forMaterial(null);
+        double g0 = new CorrectionTable(emissivity, e0.value(), reflected, lo, hi).gain();
+        float[] g = new float[rise.length];
+        Arrays.fill(g, (float) g0);
+        Integer[] bySize = new Integer[parts.size()];
+        for (int p = 0; p < bySize.length; p++) bySize[p] = p;
+        Arrays.sort(bySize, Comparator.comparingDouble((Integer p) -> -parts.get(p).wMm() * parts.get(p).hMm()));
+        int w = maps.width(), h = maps.height();
+        double px = maps.pxPerMm();
+        for (int p : bySize) {
+            Part part = parts.get(p);
+            if (!(gain[p] > 0)) continue;
+            double r = 0.5 * Math.hypot(part.wMm(), part.hMm());
+            int i0 = Math.max(0, (int) Math.floor((part.xMm() - r) * px)), i1 = Math.min(w - 1, (int) Math.ceil((part.xMm() + r) * px));
+            int j0 = Math.max(0, (int) Math.floor((part.yMm() - r) * px)), j1 = Math.min(h - 1, (int) Math.ceil((part.yMm() + r) * px));
+            for (int j = j0; j <= j1; j++)
+                for (int i = i0; i <= i1; i++)
+                    if (part.contains((i + 0.5) / px, (j + 0.5) / px)) g[j * w + i] = (float) gain[p];
+        }
+        float[] out = new float[rise.length];
+        for (int k = 0; k < out.length; k++) out[k] = rise[k] * g[k];
+        return out;
     }
 
     private AnalysisResult result(Verdict v, List<PartResult> parts, List<Hotspot> hotspots) {
@@ -301,6 +365,11 @@ public final class SeriesAnalysis {
             lo = loC - 0.5;
             step = (hiC + 0.5 - lo) / (NODES - 1);
             for (int k = 0; k < NODES; k++) object[k] = model.objectCelsius(lo + k * step, e, reflectedC);
+        }
+
+        /** Object kelvin per apparent kelvin over the table's range (the rise scale of the correction). */
+        double gain() {
+            return (object[NODES - 1] - object[0]) / (step * (NODES - 1));
         }
 
         double objectCelsius(double apparentC) {

@@ -1,5 +1,7 @@
 package org.risetrace.analysis;
 
+import org.risetrace.board.Part;
+
 import java.util.List;
 import java.util.Locale;
 
@@ -8,11 +10,14 @@ import java.util.Locale;
  * <ol>
  * <li>{@code no-heating}: no part's rise crossed k sigma (no onset), no part's rate is k standard errors above zero,
  *     and the rise map has no hot spot.</li>
- * <li>{@code inconclusive}, "on no marked part": the strongest hot spot lies on no marked part and is clearly hotter
+ * <li>{@code inconclusive}, "on no marked part": the strongest hot spot lies on no marked part, farther than two
+ *     optical blur sigmas from every footprint (nearer, it is a marked part's heat spread by the optics), and is clearly hotter
  *     than the leading part's own peak on the same smoothed map (by more than k sigma_map sqrt(2)).</li>
  * <li>{@code inconclusive}, "too little heating": the leader's rate is under k of its standard errors.</li>
  * <li>{@code inconclusive}, "level": leader minus runner-up is under {@code separationSigma} combined standard errors
- *     sqrt(se1^2 + se2^2).</li>
+ *     sqrt(se1^2 + se2^2), the leader's rate taken at its least favourable emissivity (e + u) and the runner-up's at
+ *     its most favourable (e - u), each standard error at that emissivity. The emissivity uncertainty is a scale
+ *     error: it cannot make a zero rise non-zero, so it does not enter the "too little heating" test.</li>
  * <li>{@code inconclusive}, "registration weak": more than {@code weakFractionLimit} of the used frames registered
  *     weakly and the lead is under twice {@code separationSigma} (the weak frames' residuals already widen every
  *     part's error through its position error, so a lead of twice the required separation survives them).</li>
@@ -23,8 +28,36 @@ public final class Verdicts {
     private Verdicts() {
     }
 
-    /** What the rules look at for one part. */
-    public record Candidate(String ref, Double rateKPerS, Double rateSe, boolean onset, double mapPeakK) {
+    /**
+     * What the rules look at for one part.
+     *
+     * @param rateKPerS   the rate (or rise) at the part's nominal emissivity
+     * @param rateSe      its standard error from the measured noise and the position error only
+     * @param lowScale    factor taking the nominal rate to the rate at the highest plausible emissivity (e + u: the
+     *                    lowest corrected rise); 1 without emissivity uncertainty
+     * @param highScale   factor taking it to the rate at the lowest plausible emissivity (e - u: the highest rise)
+     */
+    public record Candidate(String ref, Double rateKPerS, Double rateSe, boolean onset, double mapPeakK,
+                            double lowScale, double highScale) {
+        public Candidate(String ref, Double rateKPerS, Double rateSe, boolean onset, double mapPeakK) {
+            this(ref, rateKPerS, rateSe, onset, mapPeakK, 1.0, 1.0);
+        }
+
+        /** The rate and its standard error at the least favourable emissivity for a leader: the smaller rate. */
+        double[] worst() {
+            return pick(Math.min(rateKPerS * lowScale, rateKPerS * highScale));
+        }
+
+        /** The rate and its standard error at the most favourable emissivity for a runner-up: the larger rate. */
+        double[] best() {
+            return pick(Math.max(rateKPerS * lowScale, rateKPerS * highScale));
+        }
+
+        private double[] pick(double r) {
+            // the noise standard error scales with the correction as the rate does
+            double scale = r == rateKPerS * lowScale ? lowScale : highScale;
+            return new double[]{r, rateSe * scale};
+        }
     }
 
     /**
@@ -45,13 +78,27 @@ public final class Verdicts {
      */
     public static Verdict decide(List<Candidate> ranked, List<Hotspot> hotspots, double mapSigma, int weakFrames,
                                  int usedFrames, AnalysisOptions o, String unit) {
+        return decide(ranked, hotspots, mapSigma, weakFrames, usedFrames, o, unit, List.of(), 0);
+    }
+
+    /**
+     * @param parts      the marked parts, for the margin of the "on no marked part" rule
+     * @param marginMm   a spot whose centroid lies within this distance of a part's footprint counts as that part's
+     *                   for the "on no marked part" rule (the optics spread a part's heat that far onto the board)
+     */
+    public static Verdict decide(List<Candidate> ranked, List<Hotspot> hotspots, double mapSigma, int weakFrames,
+                                 int usedFrames, AnalysisOptions o, String unit, List<Part> parts, double marginMm) {
         double k = o.kSigma();
         Candidate lead = ranked.isEmpty() ? null : ranked.get(0);
         Candidate second = ranked.size() > 1 ? ranked.get(1) : null;
         Double sep = null;
-        if (lead != null && second != null && lead.rateKPerS() != null && second.rateKPerS() != null) {
-            double se = Math.hypot(lead.rateSe(), second.rateSe());
-            sep = se > 0 ? (lead.rateKPerS() - second.rateKPerS()) / se : null;
+        if (lead != null && second != null && lead.rateKPerS() != null && second.rateKPerS() != null
+                && lead.rateSe() != null && second.rateSe() != null) {
+            // worst case of the emissivity uncertainty: the leader at its least favourable emissivity against the
+            // runner-up at its most favourable, with the noise standard errors at those emissivities
+            double[] a = lead.worst(), b = second.best();
+            double se = Math.hypot(a[1], b[1]);
+            sep = se > 0 ? (a[0] - b[0]) / se : null;
         }
         String leadRef = lead == null ? null : lead.ref();
         String secondRef = second == null ? null : second.ref();
@@ -65,7 +112,7 @@ public final class Verdicts {
                     "nothing rose above " + num(k) + " times the measured noise");
 
         Hotspot top = hotspots.isEmpty() ? null : hotspots.get(0);
-        if (top != null && top.ref() == null
+        if (top != null && top.ref() == null && !nearAnyPart(parts, top.xMm(), top.yMm(), marginMm)
                 && (lead == null || top.riseK() - lead.mapPeakK() > k * mapSigma * Math.sqrt(2) || !Double.isFinite(lead.mapPeakK())))
             return new Verdict(VerdictStatus.INCONCLUSIVE, leadRef, leadRate, secondRef, sep,
                     String.format(Locale.ROOT, "the hottest spot, at %.1f, %.1f mm (rise %.2f K), is on no marked part:"
@@ -88,6 +135,19 @@ public final class Verdicts {
         return new Verdict(VerdictStatus.IDENTIFIED, leadRef, leadRate, secondRef, sep,
                 leadRef + (unit.equals("K") ? " warmed most: " : " heats fastest: ") + rate(lead, unit)
                         + (sep == null ? "" : ", " + num(sep) + " combined standard errors ahead of " + secondRef));
+    }
+
+    /** True when the point lies within marginMm of some part's (rotated) footprint rectangle. */
+    static boolean nearAnyPart(List<Part> parts, double xMm, double yMm, double marginMm) {
+        if (!(marginMm > 0)) return false;
+        for (Part p : parts) {
+            double a = Math.toRadians(p.rotationOrZero());
+            double dx = xMm - p.xMm(), dy = yMm - p.yMm();
+            double u = Math.abs(dx * Math.cos(a) - dy * Math.sin(a)) - p.wMm() / 2;
+            double v = Math.abs(dx * Math.sin(a) + dy * Math.cos(a)) - p.hMm() / 2;
+            if (Math.hypot(Math.max(u, 0), Math.max(v, 0)) <= marginMm) return true;
+        }
+        return false;
     }
 
     static boolean significant(Candidate c, double k) {

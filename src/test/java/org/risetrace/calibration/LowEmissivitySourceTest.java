@@ -33,7 +33,8 @@ import static org.junit.jupiter.api.Assertions.assertTrue;
  * The issue's integration case: the shorted part has a bare metal top (emissivity about 0.1), and a matte part
  * beside it is warmed by it through the board. A camera set to emissivity 1 sees the neighbour's rise more than the
  * source's (a shiny part reads the room: common practice), so without materials the verdict is wrong or
- * inconclusive; with the materials in board.json the correction restores the true rises and names the source.
+ * inconclusive; with the materials in board.json (the bundled table) the correction restores the true rises and the
+ * verdict names the source, its confidence judged at the worst case of the emissivity uncertainty.
  * Simulated by the sim stage (20 frames of 160 x 128), analysed by the analysis stage with the correction of this one.
  */
 class LowEmissivitySourceTest {
@@ -92,12 +93,21 @@ class LowEmissivitySourceTest {
                 "without materials the shiny source must not be named: " + describe(plain));
         assertEquals(NEIGHBOUR, plain.result().parts().get(0).ref(), "the matte neighbour outranks it: " + describe(plain));
 
-        // 2. the bundled table: the source comes first and is flagged; its table emissivity 0.10 +/- 0.05 leaves a
-        // factor-of-two doubt in its rise, which the verdict's confidence must carry
+        // 2. the bundled table (as board.json names the materials): the source is named and flagged. Its table
+        // emissivity 0.10 +/- 0.05 leaves a factor-of-1.5 doubt in its rise; the separation is demanded at the
+        // worst case of that range (source at e = 0.15, neighbour at e = 0.88), and the source still leads there
         Analysis table = analyze(out, withMaterials(Materials.load(), profile));
+        Verdict named = table.result().verdict();
+        System.out.println("low-emissivity source, without materials: " + describe(plain) + "\nbundled table: " + describe(table));
+        assertEquals(VerdictStatus.IDENTIFIED, named.status(), describe(table));
+        assertEquals(SOURCE, named.ref(), describe(table));
+        assertEquals(NEIGHBOUR, named.runnerUpRef(), describe(table));
+        assertTrue(named.separationSigma() >= AnalysisOptions.defaults().separationSigma(), describe(table));
         PartResult first = table.result().parts().get(0);
         assertEquals(SOURCE, first.ref(), describe(table));
         assertTrue(first.warnings().stream().anyMatch(w -> w.contains("reading unreliable")), describe(table));
+        // the hottest spot of the corrected rise map is on (or beside) the source, not "on no marked part"
+        assertFalse(named.reason().contains("no marked part"), describe(table));
 
         // 3. the lid's emissivity measured against black vinyl tape stuck on half of it (common practice: heat the
         // part, read the tape's object temperature, solve the bare half for e) is known to +/- 0.01
@@ -107,12 +117,10 @@ class LowEmissivitySourceTest {
                 + " {\"name\": \"epoxy moulded package\", \"emissivity\": 0.92, \"uncertainty\": 0.04, \"source\": \"table\"}]");
         Analysis corrected = analyze(out, withMaterials(Materials.load(measured), profile));
         Verdict after = corrected.result().verdict();
-        // the verdict names the source, ahead of the neighbour by more than the separation the analysis demands.
-        // (Its status is not asserted: the hot-spot rule looks at the apparent rise map, where the hottest pixel is
-        // the matte solder mask beside the shiny lid, so the analysis may still hold the verdict at inconclusive.)
+        assertEquals(VerdictStatus.IDENTIFIED, after.status(), describe(corrected));
         assertEquals(SOURCE, after.ref(), describe(corrected));
-        assertEquals(NEIGHBOUR, after.runnerUpRef(), describe(corrected));
-        assertTrue(after.separationSigma() >= AnalysisOptions.defaults().separationSigma(), describe(corrected));
+        // a narrower emissivity range can only widen the worst-case separation
+        assertTrue(after.separationSigma() >= named.separationSigma(), describe(corrected) + "\n" + describe(table));
         // the corrected rate of the source is several times the neighbour's, as the heat model has it
         assertTrue(after.rateKPerS() > 3 * corrected.result().parts().get(1).rateKPerS(), describe(corrected));
     }

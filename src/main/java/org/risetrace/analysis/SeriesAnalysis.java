@@ -271,12 +271,11 @@ public final class SeriesAnalysis {
             List<String> warnings = new ArrayList<>();
             if (eps[p].value() < 0.5)
                 warnings.add("emissivity " + eps[p].value() + " (" + part.material()
-                        + "): reading unreliable: cover with high-emissivity tape and capture again");
-            if (rate != null && (lowScale[p] != 1.0 || highScale[p] != 1.0))
-                warnings.add(String.format(java.util.Locale.ROOT,
-                        "emissivity %.2f ± %.2f: the rate lies between %.4f and %.4f K/s over that range",
+                        + "): reading unreliable: cover with high-emissivity tape and capture again"
+                        + (rate == null || eps[p].uncertainty() <= 0 ? "" : String.format(java.util.Locale.ROOT,
+                        " (over emissivity %.2f ± %.2f the rate lies between %.4f and %.4f K/s)",
                         eps[p].value(), eps[p].uncertainty(), rate.slope() * Math.min(lowScale[p], highScale[p]),
-                        rate.slope() * Math.max(lowScale[p], highScale[p])));
+                        rate.slope() * Math.max(lowScale[p], highScale[p]))));
             if (meanValid[p] < 0.9)
                 warnings.add(String.format(java.util.Locale.ROOT,
                         "partly outside the frame: on average %.0f %% of the footprint was visible", 100 * meanValid[p]));

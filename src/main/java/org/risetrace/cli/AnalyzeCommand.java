@@ -12,6 +12,10 @@ import org.risetrace.frame.InputRejected;
 import org.risetrace.io.Series;
 import org.risetrace.report.AnalysisJson;
 import org.risetrace.report.Reports;
+import me.tongfei.progressbar.ConsoleProgressBarConsumer;
+import me.tongfei.progressbar.ProgressBar;
+import me.tongfei.progressbar.ProgressBarBuilder;
+import me.tongfei.progressbar.ProgressBarStyle;
 import picocli.CommandLine;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Option;
@@ -121,16 +125,26 @@ public final class AnalyzeCommand implements Callable<Integer> {
                 v.ref() == null ? "" : " " + v.ref(), v.reason());
     }
 
-    /** A progress line on stderr, only when there is a terminal to redraw it on. */
+    /**
+     * A progress bar (me.tongfei:progressbar) on stderr, only when there is a terminal to redraw it on: never in a
+     * pipe, a log or a test, and never on stdout, which carries only the analysis.json document with --json.
+     */
     static Analyzer.Progress progress(PrintWriter err) {
         if (System.console() == null) return Analyzer.Progress.NONE;
-        return (done, total) -> {
-            if (total < 20) return;
-            if (done % 5 == 0 || done == total) {
-                int w = 30, filled = (int) ((long) w * done / total);
-                err.print("\r[" + "#".repeat(filled) + " ".repeat(w - filled) + "] " + done + "/" + total + " frames");
-                if (done == total) err.println();
-                err.flush();
+        return new Analyzer.Progress() {
+            private ProgressBar bar;
+
+            @Override public void update(int done, int total) {
+                if (total < 20) return;
+                if (bar == null)
+                    bar = new ProgressBarBuilder().setTaskName("frames").setInitialMax(total)
+                            .setStyle(ProgressBarStyle.ASCII).setUpdateIntervalMillis(200)
+                            .setConsumer(new ConsoleProgressBarConsumer(System.err)).build();
+                bar.stepTo(done);
+                if (done == total) {
+                    bar.close();
+                    bar = null;
+                }
             }
         };
     }

@@ -11,8 +11,9 @@ import java.util.List;
  * @param result     the analysis.json document
  * @param board      the board file used
  * @param curves     rise curves of every part, in rank order
- * @param riseMap    rise map (last frames minus baseline, smoothed), kelvin
- * @param onsetMap   per board pixel, seconds from injection start when its rise first exceeded the threshold
+ * @param riseMap    rise map (last frames minus baseline, smoothed), kelvin of object temperature
+ * @param onsetMap   per board pixel, seconds from injection start when its rise first exceeded the threshold; null
+ *                   for a two-frame comparison (one frame after heating gives every risen pixel the same onset)
  * @param lastFrame  the last usable frame rectified into board space (absolute degrees Celsius)
  */
 public record Analysis(AnalysisResult result, Board board, List<RiseCurve> curves,

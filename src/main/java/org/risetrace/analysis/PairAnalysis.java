@@ -19,6 +19,9 @@ import java.util.Map;
  * ambient change removed), hot spots of the difference map, and a ranking by rise; no rates. The noise of one
  * part's rise is taken as sqrt(2) times the single-pixel noise, 1.4826 MAD(after - before) / sqrt(2) over the
  * board: a conservative bound, since a footprint statistic varies less than one pixel.
+ *
+ * <p>No onset map ({@link Analysis#onsetMap()} is null): with a single frame after heating, every pixel that rose
+ * would carry the same onset, the after frame's time, so the map would only repeat the thresholded rise map.
  */
 public final class PairAnalysis {
     private PairAnalysis() {

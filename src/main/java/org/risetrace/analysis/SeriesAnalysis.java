@@ -169,7 +169,6 @@ public final class SeriesAnalysis {
         double[] gain = new double[np], lowScale = new double[np], highScale = new double[np];
         Arrays.fill(lowScale, 1.0);
         Arrays.fill(highScale, 1.0);
-        double reflectedUsed = Double.NaN;
         double[][] ys = new double[np][], ws = new double[np][];
         double[] meanValid = new double[np], positionErrorK = new double[np];
         for (int p = 0; p < np; p++) {
@@ -186,7 +185,6 @@ public final class SeriesAnalysis {
             double refl = Double.isFinite(reflected) ? reflected : lo;
             CorrectionTable table = Double.isFinite(lo) ? new CorrectionTable(emissivity, eps[p].value(), refl, lo, hi) : null;
             gain[p] = table == null ? 1.0 : table.gain();
-            reflectedUsed = refl;
             if (table != null && eps[p].uncertainty() > 0) {
                 // the same correction at the ends of the plausible emissivity range: a rise scales with the
                 // correction's gain, so the rate at e +/- u is the nominal rate times the ratio of gains

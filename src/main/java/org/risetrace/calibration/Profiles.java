@@ -69,6 +69,8 @@ public final class Profiles {
         if (Files.isDirectory(local)) {
             try (java.util.stream.Stream<Path> s = Files.list(local)) {
                 s.map(p -> p.getFileName().toString()).filter(n -> n.endsWith(".json"))
+                        // the materials table and Sakuma-Hattori curve files live beside the profiles
+                        .filter(n -> !n.equals("materials.json") && !n.endsWith(".sakuma-hattori.json"))
                         .forEach(n -> names.add(n.substring(0, n.length() - 5)));
             } catch (IOException ignored) {
                 // the bundled names are still right

@@ -74,4 +74,12 @@ class ProfilesTest {
         InputRejected e = assertThrows(InputRejected.class, () -> Profiles.load(f.toString()));
         assertTrue(e.getMessage().contains("gain"), e.getMessage());
     }
+
+    @Test
+    void knownProfilesLeaveOutTheMaterialsTable() {
+        // the tests run in the repository root, whose calibration/ holds materials.json beside the profiles
+        assertTrue(Files.isRegularFile(Path.of("calibration", "materials.json")));
+        assertTrue(Profiles.known().contains("u16-centikelvin"));
+        assertTrue(!Profiles.known().contains("materials"), Profiles.known().toString());
+    }
 }

@@ -80,7 +80,10 @@ public final class Hotspots {
 
     /**
      * Local maxima (strictly greater than the 8 neighbours) above {@code median + k sigma} and above zero, hottest
-     * first, each at least {@code minSeparationPx} from every hotter one, at most {@code max} of them.
+     * first, each at least {@code minSeparationPx} from every hotter one, at most {@code max} of them. A maximum must
+     * also stand out from every hotter one by a valley at least {@code k sigma} deep on the straight path between
+     * them (its topographic prominence); otherwise it is a ripple on the same hill (noise on a heated package's
+     * plateau) and not a spot of its own.
      */
     public static List<Hotspot> find(Smoothed sm, double k, double minSeparationPx, int max, List<Part> parts) {
         BoardMap m = sm.map();
@@ -120,6 +123,13 @@ public final class Hotspots {
                     break;
                 }
             if (near) continue;
+            double prominence = k * sm.sigma();
+            for (int[] q : kept)
+                if (valleyDepth(v, w, p, q) < prominence) {
+                    near = true;
+                    break;
+                }
+            if (near) continue;
             kept.add(p);
             int x = p[0], y = p[1];
             float c = v[y * w + x];
@@ -129,6 +139,24 @@ public final class Hotspots {
             out.add(new Hotspot(xMm, yMm, c, partAt(parts, xMm, yMm)));
         }
         return out;
+    }
+
+    /**
+     * How far the map dips below peak {@code p} along the straight path to the hotter peak {@code q}
+     * (NaN pixels on the path count as a full separation).
+     */
+    static double valleyDepth(float[] v, int w, int[] p, int[] q) {
+        float top = v[p[1] * w + p[0]];
+        int steps = Math.max(Math.abs(q[0] - p[0]), Math.abs(q[1] - p[1]));
+        double lowest = top;
+        for (int i = 1; i < steps; i++) {
+            int x = (int) Math.round(p[0] + (q[0] - p[0]) * (double) i / steps);
+            int y = (int) Math.round(p[1] + (q[1] - p[1]) * (double) i / steps);
+            float c = v[y * w + x];
+            if (Float.isNaN(c)) return Double.POSITIVE_INFINITY;
+            lowest = Math.min(lowest, c);
+        }
+        return top - lowest;
     }
 
     /** Parabola vertex offset in (-0.5, 0.5) through (-1, l), (0, c), (1, r); 0 when a neighbour is missing. */

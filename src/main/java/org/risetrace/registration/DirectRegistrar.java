@@ -43,6 +43,9 @@ final class DirectRegistrar implements Registrar {
         }
     }
 
+    /** An ok mapping needs at least this many agreeing check patches (fewer is too little evidence). */
+    static final int MIN_AGREEING_PATCHES_OK = 6;
+
     DirectRegistrar(ReferenceModel ref, RegistrationConfig config) {
         this(ref, config, true);
     }
@@ -309,6 +312,8 @@ final class DirectRegistrar implements Registrar {
         if (similarity < config.okSimilarity())
             weak.append(String.format(Locale.ROOT, "image similarity %.2f below %.2f; ", similarity, config.okSimilarity()));
         if (checked < 3) weak.append("too few textured patches to check the mapping; ");
+        else if (agree < MIN_AGREEING_PATCHES_OK)
+            weak.append(String.format(Locale.ROOT, "only %d check patches agree; ", agree));
         else if (fraction < config.okInlierFraction())
             weak.append(String.format(Locale.ROOT, "%d of %d check patches agree; ", agree, checked));
         if (rms > config.okRmsPx()) weak.append(String.format(Locale.ROOT, "check patches disagree by %.2f px RMS; ", rms));

@@ -37,8 +37,23 @@ public final class FootprintSampler {
         buffer = new float[longest];
     }
 
-    /** Row-major board pixel indices whose centres lie inside the part; the nearest pixel when none does. */
+    /**
+     * Row-major board pixel indices whose centres lie inside the part shrunk by one board pixel on every side (so
+     * that the optics' blur does not spill a hot neighbour into the footprint); the unshrunk part when that leaves
+     * no pixel, and the nearest pixel when even that holds none.
+     */
     static int[] footprint(Part part, int width, int height, double pxPerMm) {
+        double m = 1.0 / pxPerMm;
+        if (part.wMm() - 2 * m > m && part.hMm() - 2 * m > m) {
+            Part inner = new Part(part.ref(), part.kind(), part.material(), part.xMm(), part.yMm(),
+                    part.wMm() - 2 * m, part.hMm() - 2 * m, part.rotationDeg());
+            int[] in = rectangle(inner, width, height, pxPerMm);
+            if (in.length > 0) return in;
+        }
+        return rectangle(part, width, height, pxPerMm);
+    }
+
+    private static int[] rectangle(Part part, int width, int height, double pxPerMm) {
         double r = 0.5 * Math.hypot(part.wMm(), part.hMm());
         int i0 = Math.max(0, (int) Math.floor((part.xMm() - r) * pxPerMm));
         int i1 = Math.min(width - 1, (int) Math.ceil((part.xMm() + r) * pxPerMm));

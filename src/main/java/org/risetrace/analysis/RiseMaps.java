@@ -26,8 +26,11 @@ public final class RiseMaps {
     private final double kSigma;
     private final int onsetFrames;
     private final double tStartS;
+    private final int lastFrames;
+    private final java.util.ArrayDeque<Object[]> recent = new java.util.ArrayDeque<>();
 
-    public RiseMaps(int width, int height, double pxPerMm, double kSigma, int onsetFrames, double tStartS) {
+    public RiseMaps(int width, int height, double pxPerMm, double kSigma, int onsetFrames, double tStartS, int lastFrames) {
+        this.lastFrames = lastFrames;
         this.width = width;
         this.height = height;
         this.pxPerMm = pxPerMm;
@@ -52,7 +55,7 @@ public final class RiseMaps {
      * @param valid     validity mask (may be null)
      * @param ambientC  the frame's ambient (NaN: unknown, treated as no change)
      * @param baseline  true for a baseline frame
-     * @param last      true for one of the last frames
+     * @param last      ignored: the last frames are the last {@code lastFrames} used non-baseline frames
      */
     public void add(float[] celsius, boolean[] valid, double tS, double ambientC, boolean baseline, boolean last) {
         int n = baseSum.length;
@@ -73,17 +76,10 @@ public final class RiseMaps {
             return;
         }
         double ambDelta = ambBaseCount > 0 && Double.isFinite(ambientC) ? ambientC - ambBaseSum / ambBaseCount : 0;
-        if (last) {
-            for (int k = 0; k < n; k++)
-                if ((valid == null || valid[k]) && !Float.isNaN(celsius[k])) {
-                    lastSum[k] += celsius[k];
-                    lastCount[k]++;
-                }
-            if (Double.isFinite(ambientC)) {
-                ambLastSum += ambientC;
-                ambLastCount++;
-            }
-        }
+        // the last frames are the last lastFrames used frames: kept (a few rasters) until the series ends, since
+        // frames near the end may still fail registration
+        recent.addLast(new Object[]{celsius, valid, ambientC});
+        if (recent.size() > lastFrames) recent.removeFirst();
         if (tS <= tStartS || !(pixelSigma > 0)) return;
         float threshold = (float) (kSigma * pixelSigma);
         float since = (float) (tS - tStartS);
@@ -121,6 +117,24 @@ public final class RiseMaps {
     /** Mean of the last frames minus the baseline mean, ambient change removed; NaN where either is missing. */
     public float[] riseMap() {
         int n = baseSum.length;
+        java.util.Arrays.fill(lastSum, 0);
+        java.util.Arrays.fill(lastCount, 0);
+        ambLastSum = 0;
+        ambLastCount = 0;
+        for (Object[] r : recent) {
+            float[] celsius = (float[]) r[0];
+            boolean[] valid = (boolean[]) r[1];
+            double ambientC = (Double) r[2];
+            for (int k = 0; k < n; k++)
+                if ((valid == null || valid[k]) && !Float.isNaN(celsius[k])) {
+                    lastSum[k] += celsius[k];
+                    lastCount[k]++;
+                }
+            if (Double.isFinite(ambientC)) {
+                ambLastSum += ambientC;
+                ambLastCount++;
+            }
+        }
         float[] out = new float[n];
         double ambDelta = ambBaseCount > 0 && ambLastCount > 0 ? ambLastSum / ambLastCount - ambBaseSum / ambBaseCount : 0;
         for (int k = 0; k < n; k++)

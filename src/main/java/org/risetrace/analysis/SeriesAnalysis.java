@@ -36,6 +36,8 @@ public final class SeriesAnalysis {
     private final List<double[]> stats = new ArrayList<>();
     private final List<Double> times = new ArrayList<>(), ambient = new ArrayList<>();
     private final List<Boolean> weak = new ArrayList<>();
+    private final List<Double> weakRmsPx = new ArrayList<>();
+    private final List<org.risetrace.registration.Homography> mappings = new ArrayList<>();
     private int baselineUsed;
     private RiseMaps maps;
     private FootprintSampler footprints;
@@ -43,6 +45,7 @@ public final class SeriesAnalysis {
     private double framePxPerMm = Double.NaN;
     private double lastT = Double.NEGATIVE_INFINITY;
     private double windowUsedS = Double.NaN;
+    private double positionScale = 0;
 
 
     public SeriesAnalysis(Board board, AnalysisOptions options, BaselinePlan plan, EmissivityModel emissivity,
@@ -69,7 +72,7 @@ public final class SeriesAnalysis {
         BoardRaster raster = s.raster();
         if (maps == null) {
             maps = new RiseMaps(raster.width(), raster.height(), raster.pxPerMm(), options.kSigma(),
-                    options.onsetFrames(), plan.tStartS());
+                    options.onsetFrames(), plan.tStartS(), options.lastFrames());
             footprints = new FootprintSampler(parts, raster.width(), raster.height(), raster.pxPerMm());
             if (r.boardToFrame() != null) framePxPerMm = framePxPerMm(r, board);
         }
@@ -83,6 +86,8 @@ public final class SeriesAnalysis {
         stats.add(s.stats());
         ambient.add(s.ambientC());
         weak.add(r.status() == RegistrationStatus.WEAK);
+        if (r.status() == RegistrationStatus.WEAK && Double.isFinite(r.rmsPx())) weakRmsPx.add(r.rmsPx());
+        mappings.add(r.boardToFrame());
         lastRaster = raster;
     }
 
@@ -139,6 +144,22 @@ public final class SeriesAnalysis {
 
         // per part: object temperatures, weights, how far registration and resampling alone can move each reading
         float[] baseMean = maps.baselineMean();
+        // how far the sampling phase can wander: the largest displacement of the board centre in the frame since
+        // the first frame after the injection start (frame px converted to board px); relative to half a pixel it
+        // scales each footprint's half-pixel sensitivity
+        double boardPxPerFramePx = Double.isFinite(framePxPerMm) && framePxPerMm > 0 ? maps.pxPerMm() / framePxPerMm : 1;
+        double drift = 0;
+        double[] ref = null;
+        for (int i = 0; i < n; i++) {
+            if (t[i] <= plan.tStartS() || mappings.get(i) == null) continue;
+            double[] c = mappings.get(i).apply(board.widthMm() / 2, board.heightMm() / 2);
+            if (ref == null) ref = c;
+            else drift = Math.max(drift, Math.hypot(c[0] - ref[0], c[1] - ref[1]));
+        }
+        // (a weak frame's residual is scatter from frame to frame, which the rate fit's residuals already measure;
+        // only the wander of the mapping itself biases a rate)
+        double positionScale = drift * boardPxPerFramePx / 0.5;
+        this.positionScale = positionScale;
         EmissivityModel.Emissivity[] eps = new EmissivityModel.Emissivity[np];
         double[][] ys = new double[np][], ws = new double[np][];
         double[] meanValid = new double[np], positionErrorK = new double[np];
@@ -148,20 +169,26 @@ public final class SeriesAnalysis {
             double[] y = new double[n], w = new double[n];
             double validSum = 0;
             double reflected = context.reflectedC() != null ? context.reflectedC() : ambBase;
+            double lo = Double.POSITIVE_INFINITY, hi = Double.NEGATIVE_INFINITY;
+            for (int i = 0; i < n; i++) {
+                double app = stats.get(i)[p * FootprintSampler.STATS + FootprintSampler.P95];
+                if (Double.isFinite(app)) { lo = Math.min(lo, app); hi = Math.max(hi, app); }
+            }
+            double refl = Double.isFinite(reflected) ? reflected : lo;
+            CorrectionTable table = Double.isFinite(lo) ? new CorrectionTable(emissivity, eps[p].value(), refl, lo, hi) : null;
             for (int i = 0; i < n; i++) {
                 double[] s = stats.get(i);
                 double app = s[p * FootprintSampler.STATS + FootprintSampler.P95];
                 double valid = s[p * FootprintSampler.STATS + FootprintSampler.VALID];
                 validSum += valid;
-                double refl = Double.isFinite(reflected) ? reflected : app;
-                y[i] = Double.isFinite(app) ? emissivity.objectCelsius(app, eps[p].value(), refl) : Double.NaN;
+                y[i] = Double.isFinite(app) && table != null ? table.objectCelsius(app) : Double.NaN;
                 // weakly registered frames and partly visible footprints count less in the rate fit
                 w[i] = valid * (weak.get(i) ? 0.5 : 1.0);
             }
             ys[p] = y;
             ws[p] = w;
             meanValid[p] = validSum / n;
-            positionErrorK[p] = footprints.halfPixelSensitivity(baseMean, p) / eps[p].value();
+            positionErrorK[p] = footprints.halfPixelSensitivity(baseMean, p) * positionScale / eps[p].value();
         }
         // the rate window: up to the time the most-risen part reached half its end rise (a first-order curve is
         // still nearly straight there, at 0.69 tau), at most rateWindowS
@@ -238,6 +265,7 @@ public final class SeriesAnalysis {
         if (maps != null) params.put("board_px_per_mm", maps.pxPerMm());
         params.put("rate_window_used_s", finite(windowUsedS));
         params.put("position_error", "half-pixel resampling sensitivity of each footprint on the baseline");
+        params.put("position_error_scale", positionScale);
         if (maps != null) params.put("pixel_noise_k", finite(maps.pixelSigma()));
         return new AnalysisResult(AnalysisResult.SCHEMA, "risetrace", context.version(), Instant.now().toString(),
                 context.series(), context.boardFile(), context.profile(), params, context.injection(), v, parts,
@@ -246,5 +274,30 @@ public final class SeriesAnalysis {
 
     private static Double finite(double v) {
         return Double.isFinite(v) ? v : null;
+    }
+
+    /**
+     * The emissivity correction of one part tabulated at 65 apparent temperatures over the part's range and
+     * interpolated linearly: the band-radiance correction is smooth and monotonic, so over a range of tens of kelvin
+     * the interpolation error stays far below the camera's noise, and the band integrals run 65 times per part
+     * instead of once per frame.
+     */
+    static final class CorrectionTable {
+        private static final int NODES = 65;
+        private final double lo, step;
+        private final double[] object = new double[NODES];
+
+        CorrectionTable(EmissivityModel model, double e, double reflectedC, double loC, double hiC) {
+            lo = loC - 0.5;
+            step = (hiC + 0.5 - lo) / (NODES - 1);
+            for (int k = 0; k < NODES; k++) object[k] = model.objectCelsius(lo + k * step, e, reflectedC);
+        }
+
+        double objectCelsius(double apparentC) {
+            double u = (apparentC - lo) / step;
+            int k = Math.max(0, Math.min(NODES - 2, (int) Math.floor(u)));
+            double f = u - k;
+            return object[k] + f * (object[k + 1] - object[k]);
+        }
     }
 }

@@ -1,6 +1,8 @@
 package org.risetrace.analysis;
 
 import org.risetrace.board.Board;
+import org.risetrace.calibration.Material;
+import org.risetrace.calibration.Materials;
 import org.risetrace.calibration.Profile;
 import org.risetrace.frame.Frame;
 import org.risetrace.frame.InputRejected;
@@ -86,12 +88,18 @@ public final class SeriesAnalyzer {
     }
 
     /**
-     * The emissivity model for a series: the profile's default emissivity and band, with the radiometry stage's
-     * band-radiance correction; no correction when the profile is unknown.
+     * The emissivity model for a series: each part's material from the bundled materials table (else the profile's
+     * default emissivity), the profile's band, and the radiometry stage's band-radiance correction; no correction
+     * when the profile is unknown.
      */
     public static EmissivityModel emissivity(Profile profile) {
         if (profile == null) return EmissivityModel.none();
-        return EmissivityModel.of(material -> null, profile.defaultEmissivity(), profile.bandUm());
+        Materials materials = Materials.load();
+        return EmissivityModel.of(name -> {
+            if (!materials.contains(name)) return null;
+            Material m = materials.get(name);
+            return new EmissivityModel.Emissivity(m.emissivity(), m.uncertainty(), m.source());
+        }, profile.defaultEmissivity(), profile.bandUm());
     }
 
     static BoardMapper mapper(Registrar registrar, Rectifier rectifier) {

@@ -14,7 +14,8 @@ import java.util.Locale;
  * <li>{@code inconclusive}, "level": leader minus runner-up is under {@code separationSigma} combined standard errors
  *     sqrt(se1^2 + se2^2).</li>
  * <li>{@code inconclusive}, "registration weak": more than {@code weakFractionLimit} of the used frames registered
- *     weakly.</li>
+ *     weakly and the lead is under twice {@code separationSigma} (the weak frames' residuals already widen every
+ *     part's error through its position error, so a lead of twice the required separation survives them).</li>
  * <li>otherwise {@code identified}.</li>
  * </ol>
  */
@@ -79,7 +80,8 @@ public final class Verdicts {
             return new Verdict(VerdictStatus.INCONCLUSIVE, leadRef, leadRate, secondRef, sep,
                     "two parts level: " + leadRef + " (" + rate(lead, unit) + ") and " + secondRef + " (" + rate(second, unit)
                             + ") differ by " + num(sep) + " combined standard errors, under " + num(o.separationSigma()));
-        if (usedFrames > 0 && weakFrames > o.weakFractionLimit() * usedFrames)
+        boolean clearLead = sep == null || sep >= 2 * o.separationSigma();
+        if (usedFrames > 0 && weakFrames > o.weakFractionLimit() * usedFrames && !clearLead)
             return new Verdict(VerdictStatus.INCONCLUSIVE, leadRef, leadRate, secondRef, sep,
                     "registration weak in " + weakFrames + " of " + usedFrames + " frames: " + leadRef
                             + " leads, but check the alignment and capture again with the camera held still");

@@ -60,7 +60,7 @@ public final class ProfileWriter {
 
     /** Checks a new profile name: letters, digits, '.', '_' and '-', not a path and without ".json". */
     public static void requireName(String name) {
-        if (name == null || !NAME.matcher(name).matches() || name.toLowerCase().endsWith(".json"))
+        if (name == null || !NAME.matcher(name).matches() || name.toLowerCase(java.util.Locale.ROOT).endsWith(".json"))
             throw new InputRejected(null, "profile name '" + name + "' must be letters, digits, '.', '_' or '-'"
                     + " (no path, no .json)");
     }

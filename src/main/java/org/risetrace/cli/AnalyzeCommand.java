@@ -1,7 +1,5 @@
 package org.risetrace.cli;
 
-import com.fasterxml.jackson.databind.ObjectMapper;
-import com.fasterxml.jackson.databind.SerializationFeature;
 import org.risetrace.analysis.Analysis;
 import org.risetrace.analysis.AnalysisOptions;
 import org.risetrace.analysis.Analyzer;
@@ -9,14 +7,16 @@ import org.risetrace.analysis.SeriesAnalyzer;
 import org.risetrace.analysis.Verdict;
 import org.risetrace.board.Board;
 import org.risetrace.board.BoardFile;
+import org.risetrace.calibration.Materials;
 import org.risetrace.frame.InputRejected;
 import org.risetrace.io.Series;
+import org.risetrace.report.AnalysisJson;
+import org.risetrace.report.Reports;
 import picocli.CommandLine;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
 
-import java.io.IOException;
 import java.io.PrintWriter;
 import java.io.UncheckedIOException;
 import java.nio.file.Files;
@@ -98,11 +98,11 @@ public final class AnalyzeCommand implements Callable<Integer> {
         Path boardFile = board != null ? board : series.resolve("board.json");
         if (!Files.isRegularFile(boardFile))
             throw new InputRejected(boardFile, "board file not found", "mark the board with 'risetrace board' or pass --board");
-        Board b = BoardFile.read(boardFile, null);
+        Board b = BoardFile.read(boardFile, Materials.load().names());
         Analysis a = SeriesAnalyzer.analyze(s, b, boardFile, series.toString(), options,
                 SeriesAnalyzer.emissivity(s.profile()), tunables.threads(), progress(err));
         Path dir = out != null ? out : Path.of("risetrace-out", series.toAbsolutePath().normalize().getFileName().toString());
-        writeOutputs(a, dir);
+        writeOutputs(a, dir, s.sidecar() == null ? null : s.sidecar().notes());
         if (json) {
             PrintWriter o = spec.commandLine().getOut();
             o.println(toJson(a));
@@ -135,23 +135,16 @@ public final class AnalyzeCommand implements Callable<Integer> {
         };
     }
 
-    private static final ObjectMapper JSON = new ObjectMapper().enable(SerializationFeature.INDENT_OUTPUT);
-
     static String toJson(Analysis a) {
-        try {
-            return JSON.writeValueAsString(a.result());
-        } catch (IOException e) {
-            throw new UncheckedIOException(e);
-        }
+        return AnalysisJson.toJson(a.result());
     }
 
     /** analysis.json, parts.csv and report.html into dir. */
-    static void writeOutputs(Analysis a, Path dir) {
+    static void writeOutputs(Analysis a, Path dir, String notes) {
         try {
-            Files.createDirectories(dir);
-            Files.writeString(dir.resolve("analysis.json"), toJson(a) + "\n");
-        } catch (IOException e) {
-            throw new InputRejected(dir, "cannot write the results: " + e.getMessage());
+            Reports.writeAll(a, dir, notes);
+        } catch (UncheckedIOException e) {
+            throw new InputRejected(dir, "cannot write the results: " + e.getCause().getMessage());
         }
     }
 }

@@ -4,9 +4,11 @@ import org.risetrace.analysis.Analysis;
 import org.risetrace.analysis.SeriesAnalyzer;
 import org.risetrace.board.Board;
 import org.risetrace.board.BoardFile;
+import org.risetrace.calibration.Materials;
 import org.risetrace.frame.Frame;
 import org.risetrace.frame.InputRejected;
 import org.risetrace.io.Series;
+import org.risetrace.report.ComparisonReport;
 import picocli.CommandLine;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Option;
@@ -51,7 +53,11 @@ public final class CompareCommand implements Callable<Integer> {
         PrintWriter err = spec.commandLine().getErr();
         Analysis a = run(before, after, board, profile, tunables, spec.commandLine(), err);
         Path dir = out != null ? out : Path.of("risetrace-out", "compare");
-        AnalyzeCommand.writeOutputs(a, dir);
+        try {
+            ComparisonReport.writeAll(a, dir, null);
+        } catch (java.io.UncheckedIOException e) {
+            throw new InputRejected(dir, "cannot write the results: " + e.getCause().getMessage());
+        }
         if (json) spec.commandLine().getOut().println(AnalyzeCommand.toJson(a));
         else {
             spec.commandLine().getOut().println(AnalyzeCommand.line(after.getFileName() + " vs " + before.getFileName(),
@@ -75,7 +81,7 @@ public final class CompareCommand implements Callable<Integer> {
         Path boardFile = board != null ? board : folder.resolve("board.json");
         if (!Files.isRegularFile(boardFile))
             throw new InputRejected(boardFile, "board file not found", "pass --board");
-        Board b = BoardFile.read(boardFile, null);
+        Board b = BoardFile.read(boardFile, Materials.load().names());
         return SeriesAnalyzer.compare(fb, fa, b, boardFile, tunables.options(cl),
                 s.profile() == null ? null : s.profile().name());
     }

@@ -58,11 +58,11 @@ public final class InspectCommand implements Callable<Integer> {
                 frames.add(s);
             } else {
                 if (rows[0]++ == 0)
-                    out.printf(Locale.ROOT, "%-32s %-5s %11s %4s %-16s %9s %9s %9s %10s%n", "file", "type", "size",
-                            "bits", "profile", "min_c", "mean_c", "max_c", "t_s");
-                out.printf(Locale.ROOT, "%-32s %-5s %11s %4d %-16s %9s %9s %9s %10.3f%n", s.file(), s.container(),
+                    out.printf(Locale.ROOT, "%-5s %11s %4s %-16s %9s %9s %9s %10s  %s%n", "type", "size",
+                            "bits", "profile", "min_c", "mean_c", "max_c", "t_s", "file");
+                out.printf(Locale.ROOT, "%-5s %11s %4d %-16s %9s %9s %9s %10.3f  %s%n", s.container(),
                         s.width() + "x" + s.height(), s.bitDepth(), s.profile(), num(s.minC()), num(s.meanC()),
-                        num(s.maxC()), s.tS());
+                        num(s.maxC()), s.tS(), s.file());
                 out.flush();
             }
         });

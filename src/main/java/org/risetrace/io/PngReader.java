@@ -1,5 +1,7 @@
 package org.risetrace.io;
 
+import org.risetrace.frame.InputRejected;
+
 import java.nio.file.Path;
 
 /**
@@ -21,8 +23,34 @@ public final class PngReader implements FrameReader {
 
     @Override
     public RawSamples decode(Path file, byte[] bytes, ReadContext context) {
+        checkChunks(file, bytes);
         ImageIoDecoding.Decoded d = ImageIoDecoding.decode(file, bytes, "png", "PNG", context, false);
         return ImageIoDecoding.samples(file, d.image(), 0, detail(bytes));
+    }
+
+    /**
+     * Walks the chunks and checks each CRC-32 (ISO/IEC 15948 section 5.3: over chunk type and data), which the
+     * JDK plug-in skips: a damaged byte in the image data is refused instead of becoming a wrong temperature.
+     */
+    static void checkChunks(Path file, byte[] b) {
+        java.util.zip.CRC32 crc = new java.util.zip.CRC32();
+        int p = SIGNATURE.length;
+        while (p + 12 <= b.length) {
+            long length = ((b[p] & 0xFFL) << 24) | ((b[p + 1] & 0xFF) << 16) | ((b[p + 2] & 0xFF) << 8) | (b[p + 3] & 0xFF);
+            String type = new String(b, p + 4, 4, java.nio.charset.StandardCharsets.ISO_8859_1);
+            if (length > b.length - p - 12L)
+                throw new InputRejected(file, "truncated PNG file: chunk " + type + " at byte " + p + " runs past the end");
+            int n = (int) length;
+            crc.reset();
+            crc.update(b, p + 4, 4 + n);
+            int q = p + 8 + n;
+            long stored = ((b[q] & 0xFFL) << 24) | ((b[q + 1] & 0xFF) << 16) | ((b[q + 2] & 0xFF) << 8) | (b[q + 3] & 0xFF);
+            if (stored != crc.getValue())
+                throw new InputRejected(file, "damaged PNG file: CRC mismatch in chunk " + type + " at byte " + p);
+            if (type.equals("IEND")) return;
+            p = q + 4;
+        }
+        throw new InputRejected(file, "truncated PNG file: no IEND chunk");
     }
 
     /** Bit depth, colour type and interlacing from the IHDR chunk (bytes 24, 25, 28 of the file). */

@@ -31,9 +31,14 @@ class SimulatorBenchmark {
                 .withSize(640, 512).withFrames(300, 0.5, 5.0);
         // warm-up on a short run so the JIT has compiled the hot loops
         Simulator.run(s.withFrames(4, 0.5, 1.0), dir.resolve("warm"));
+        java.lang.management.OperatingSystemMXBean os = java.lang.management.ManagementFactory.getOperatingSystemMXBean();
+        long cpu0 = os instanceof com.sun.management.OperatingSystemMXBean sun ? sun.getProcessCpuTime() : -1;
+        double load = os.getSystemLoadAverage();
         long t0 = System.nanoTime();
         SimulationOutput out = Simulator.run(s, dir.resolve("run"));
         double seconds = (System.nanoTime() - t0) / 1e9;
+        long cpu1 = os instanceof com.sun.management.OperatingSystemMXBean sun ? sun.getProcessCpuTime() : -1;
+        double cpuSeconds = (cpu1 - cpu0) / 1e9;
         Truth.Grid g = out.truth().grid();
         long bytes;
         try (Stream<Path> files = Files.list(dir.resolve("run"))) {
@@ -41,9 +46,10 @@ class SimulatorBenchmark {
         }
         assertEquals(300, out.frameFiles().size());
         System.out.printf("SimulatorBenchmark: 640x512 px, 300 frames, thermal grid %d x %d cells (%.2f mm) + %d parts, "
-                        + "time step %.2f s over %.1f s: %.1f s total, %.0f ms per frame, %.1f MB written, %d cores%n",
+                        + "time step %.2f s over %.1f s: %.1f s wall, %.1f s CPU (all threads), %.0f ms wall per frame, "
+                        + "%.1f MB written, %d cores, load average %.1f at the start%n",
                 g.nx(), g.ny(), g.dxMm(), out.truth().partTemperaturesC().size(), g.timeStepS(),
-                out.truth().frames().get(299).tS(), seconds, 1000 * seconds / 300, bytes / 1e6,
-                Runtime.getRuntime().availableProcessors());
+                out.truth().frames().get(299).tS(), seconds, cpuSeconds, 1000 * seconds / 300, bytes / 1e6,
+                Runtime.getRuntime().availableProcessors(), load);
     }
 }

@@ -86,7 +86,7 @@ class LowEmissivitySourceTest {
         Profile profile = Series.open(out.directory(), null, ReadContext.DEFAULT_MAX_PIXELS).profile();
 
         // 1. no materials: every part at the profile's default emissivity, as a camera set to one emissivity sees it
-        Analysis plain = analyze(out, SeriesAnalyzer.emissivity(profile));
+        Analysis plain = analyze(out, EmissivityModel.of(material -> null, profile.defaultEmissivity(), profile.bandUm()));
         Verdict before = plain.result().verdict();
         assertFalse(before.status() == VerdictStatus.IDENTIFIED && SOURCE.equals(before.ref()),
                 "without materials the shiny source must not be named: " + describe(plain));

@@ -154,7 +154,7 @@ class InspectCommandTest {
         Path good = png16("whole.png", 160, 128, 29815);
         byte[] b = Files.readAllBytes(good);
         Path f = Files.write(dir.resolve("cut.png"), Arrays.copyOf(b, b.length / 2));
-        assertRejected(run("inspect", f.toString()), f, "truncated or damaged PNG");
+        assertRejected(run("inspect", f.toString()), f, "truncated PNG");
     }
 
     @Test
@@ -164,6 +164,15 @@ class InspectCommandTest {
         for (int i = 60; i < b.length - 20; i++) b[i] = (byte) (i * 7919);
         Path f = Files.write(dir.resolve("garbled.png"), b);
         assertRejected(run("inspect", f.toString()), f, "damaged PNG");
+    }
+
+    @Test
+    void oneFlippedBitInPngImageDataIsRejectedByItsCrc() throws IOException {
+        Path good = png16("whole.png", 160, 128, 29815);
+        byte[] b = Files.readAllBytes(good);
+        b[b.length - 30] ^= 0x01; // inside the last IDAT chunk's data (IEND is the last 12 bytes)
+        Path f = Files.write(dir.resolve("flipped.png"), b);
+        assertRejected(run("inspect", f.toString()), f, "CRC mismatch", "IDAT");
     }
 
     @Test

@@ -99,4 +99,13 @@ class FixtureTest {
                 }
         }
     }
+
+    @Test
+    void colourGradientFromImageMagickIsRefused() {
+        org.risetrace.frame.InputRejected e = org.junit.jupiter.api.Assertions.assertThrows(
+                org.risetrace.frame.InputRejected.class,
+                () -> FrameReaders.read(fixture("colour-gradient.png"), ReadContext.defaults()));
+        assertTrue(e.getMessage().contains("colour-gradient.png")
+                && e.getMessage().contains("colour palette image: export radiometric or greyscale frames"), e.getMessage());
+    }
 }

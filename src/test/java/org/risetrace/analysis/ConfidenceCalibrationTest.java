@@ -1,0 +1,124 @@
+package org.risetrace.analysis;
+
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+import org.risetrace.board.Board;
+import org.risetrace.board.BoardFile;
+import org.risetrace.frame.Frame;
+import org.risetrace.io.Series;
+import org.risetrace.registration.BoardRaster;
+import org.risetrace.registration.FrameRegistration;
+import org.risetrace.registration.Homography;
+import org.risetrace.registration.Rectifier;
+import org.risetrace.registration.RegistrationStatus;
+import org.risetrace.sim.Scenario;
+import org.risetrace.sim.Scenarios;
+import org.risetrace.sim.SimulationOutput;
+import org.risetrace.sim.Simulator;
+import org.risetrace.sim.Truth;
+
+import java.nio.file.Path;
+import java.util.HashMap;
+import java.util.Map;
+import java.util.SplittableRandom;
+
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+/**
+ * Calibration of the verdict's confidence over freshly simulated small series with random source power (down to
+ * zero), source position, camera noise and camera drift. The frames are mapped with the simulation's own
+ * board-to-frame homographies, so the test measures the analysis' statistics, not the registration stage (which
+ * has its own tests); resampling, noise and drift are all real.
+ */
+class ConfidenceCalibrationTest {
+    static final int SERIES = 50;
+
+    static BoardMapper truthMapper(Truth truth, Rectifier rect) {
+        Map<String, Homography> hs = new HashMap<>();
+        for (Truth.TruthFrame f : truth.frames()) hs.put(f.file(), f.homography());
+        return new BoardMapper() {
+            @Override public FrameRegistration register(Frame f) {
+                return new FrameRegistration(f.fileName(), f.tSeconds(), RegistrationStatus.OK, null,
+                        hs.get(f.fileName()), null, 0, Double.NaN, Double.NaN);
+            }
+            @Override public BoardRaster rectify(Frame f, Homography h) { return rect.rectify(f, h); }
+        };
+    }
+
+    @Test
+    void identifiedVerdictsAreRarelyWrongAndStrongLeadsAreIdentified(@TempDir Path dir) {
+        SplittableRandom rnd = new SplittableRandom(20261201);
+        int identified = 0, wrong = 0, strong = 0, strongIdentified = 0;
+        StringBuilder log = new StringBuilder();
+        for (int k = 0; k < SERIES; k++) {
+            double power = rnd.nextDouble() < 0.2 ? 0 : 0.4 * Math.pow(rnd.nextDouble(), 3);
+            double netd = 0.03 + 0.05 * rnd.nextDouble(), drift = 0.08 * rnd.nextDouble();
+            Scenario sc = Scenarios.random(7000 + k, 6, power).withNetd(netd)
+                    .withMotion(Scenario.Motion.stand(drift)).withFrames(24, 0.5, 2.0);
+            SimulationOutput out = Simulator.run(sc, dir.resolve("c" + k));
+            Series s = Series.open(out.directory());
+            Board b = BoardFile.read(out.boardFile(), null);
+            AnalysisOptions o = AnalysisOptions.defaults();
+            double[] times = new double[s.size()];
+            for (int i = 0; i < times.length; i++) times[i] = s.tSeconds(i);
+            BaselinePlan plan = BaselinePlan.plan(times, s.sidecar().injection().startS(), null, o.lastFrames());
+            Rectifier rect = new Rectifier(b, Rectifier.defaultPxPerMm(b));
+            SeriesAnalysis sa = new SeriesAnalysis(b, o, plan, SeriesAnalyzer.emissivity(s.profile()),
+                    new SeriesAnalysis.Context("c" + k, "board.json", s.profile().name(), s.sidecar().injection(),
+                            s.sidecar().reflectedC(), "test", "band"));
+            FrameSource src = new FrameSource() {
+                @Override public int size() { return s.size(); }
+                @Override public String fileName(int i) { return s.fileName(i); }
+                @Override public double tSeconds(int i) { return s.tSeconds(i); }
+                @Override public Frame read(int i) { return s.read(i); }
+            };
+            Analysis a = Analyzer.run(src, b, () -> truthMapper(out.truth(), rect),
+                    () -> AmbientSampler.forBoard(b, o.ambientGapMm(), o.ambientBandMm()), sa, 2, Analyzer.Progress.NONE);
+
+            // true rates: OLS slope (Draper & Smith eq. 1.2.9) of the simulation's true part temperatures over the
+            // window the analysis used; sigma: the analysis' own standard errors
+            Truth t = out.truth();
+            double[] tt = new double[t.frames().size()];
+            for (int i = 0; i < tt.length; i++) tt[i] = t.frames().get(i).tS();
+            double win = ((Number) a.result().parameters().get("rate_window_used_s")).doubleValue();
+            int from = 0;
+            while (tt[from] <= t.injectionStartS()) from++;
+            int to = from;
+            while (to < tt.length && (tt[to] <= t.injectionStartS() + win || to - from < o.minRateFrames())) to++;
+            // the source's lead in sigmas: the smallest (r_source - r_i) / sqrt(se_source^2 + se_i^2) over every other
+            // part i, since a part whose rate is poorly known cannot be ruled out by a small difference
+            Map<String, Double> trueRate = new HashMap<>(), se = new HashMap<>();
+            for (PartResult p : a.result().parts()) {
+                trueRate.put(p.ref(), LineFit.fit(tt, t.part(p.ref()), null, from, to, 0).slope());
+                se.put(p.ref(), p.rateSe());
+            }
+            String source = t.primarySource();
+            double trueSeparation = Double.NEGATIVE_INFINITY;
+            if (trueRate.containsKey(source)) {
+                trueSeparation = Double.POSITIVE_INFINITY;
+                for (String ref : trueRate.keySet())
+                    if (!ref.equals(source))
+                        trueSeparation = Math.min(trueSeparation, (trueRate.get(source) - trueRate.get(ref))
+                                / Math.hypot(se.get(source), se.get(ref)));
+            }
+            Verdict v = a.result().verdict();
+            boolean id = v.status() == VerdictStatus.IDENTIFIED;
+            boolean right = id && v.ref().equals(t.primarySource());
+            if (id) identified++;
+            if (id && !right) wrong++;
+            if (trueSeparation >= 5) {
+                strong++;
+                if (right) strongIdentified++;
+            }
+            log.append(String.format(java.util.Locale.ROOT, "%n#%d %.3f W source %s true separation %.1f: %s %s",
+                    k, power, t.primarySource(), trueSeparation, v.status().word(), v.ref()) + " " + v.reason());
+        }
+        // issue #5: identified but wrong at most 1 % (with 50 series: none)
+        assertTrue(wrong <= 0.01 * SERIES, wrong + " of " + identified + " identified verdicts wrong" + log);
+        // issue #5: identified when the source leads by 5 sigma at least 90 % of the time (lead defined above)
+        assertTrue(strong >= 5, "premise: enough strong cases, got " + strong + log);
+        assertTrue(strongIdentified >= 0.9 * strong, strongIdentified + " of " + strong + " strong leads identified" + log);
+        System.out.println("calibration: " + identified + " identified, " + wrong + " wrong, " + strongIdentified
+                + " of " + strong + " strong leads identified");
+    }
+}

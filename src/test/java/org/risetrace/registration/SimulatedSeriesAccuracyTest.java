@@ -31,6 +31,7 @@ import static org.junit.jupiter.api.Assertions.assertTrue;
  */
 class SimulatedSeriesAccuracyTest {
     static final int SERIES = 20, FRAMES = 8;
+    static final boolean DIAG = Boolean.getBoolean("reg.diag");
 
     @TempDir
     Path dir;
@@ -69,6 +70,11 @@ class SimulatedSeriesAccuracyTest {
                 assertTrue(t.file().equals(f.fileName()), "truth in frame order");
                 FrameRegistration g = reg.register(f);
                 n++;
+                if (DIAG && g.status() != RegistrationStatus.OK || DIAG && g.boardCornersPx() != null
+                        && SyntheticScene.cornerError(g.boardCornersPx(), t.boardCornersPx()) > 0.5)
+                    System.out.printf(Locale.ROOT, "DIAG %s %d %s %s err=%s %s%n", motion.kind(), seed, f.fileName(),
+                            g.status(), g.boardCornersPx() == null ? "-" : String.format(Locale.ROOT, "%.3f",
+                                    SyntheticScene.cornerError(g.boardCornersPx(), t.boardCornersPx())), g.reason());
                 switch (g.status()) {
                     case OK -> {
                         double e = SyntheticScene.cornerError(g.boardCornersPx(), t.boardCornersPx());

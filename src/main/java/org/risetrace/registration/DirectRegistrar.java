@@ -45,6 +45,9 @@ final class DirectRegistrar implements Registrar {
 
     /** An ok mapping needs at least this many agreeing check patches (fewer is too little evidence). */
     static final int MIN_AGREEING_PATCHES_OK = 6;
+    static boolean ROBUST_COARSE = Boolean.parseBoolean(System.getProperty("reg.rc", "true"));
+    static int CLIP_FROM_TOP = Integer.getInteger("reg.cliptop", 1);
+    static int KEEP = Integer.getInteger("reg.keep", 2);
     /** An ok mapping's check patches may imply at most this correction at a board corner (affine fit, px). */
     static final double MAX_CORNER_CORRECTION_OK_PX = 0.75;
 
@@ -78,22 +81,34 @@ final class DirectRegistrar implements Registrar {
             double texture = spread(ws.pyramid.bandPass[0]);
             if (texture < 0.05 * ref.referenceBandStd)
                 return failed(frame, "frame is uniform: no texture to register");
+            for (int l = Math.max(1, ref.levels - CLIP_FROM_TOP); l < ref.levels; l++)
+                if (ref.level[l].n >= 16)
+                    CoarseSearch.clipInPlace(ws.pyramid.bandPass[l], ws.pyramid.widths[l] * ws.pyramid.heights[l],
+                            ref.level[l].t);
             Grade best = null;
             int top = ref.levels - 1;
             int fast = Math.min(2, top);
             if (config.method().equals("auto")) {
                 Homography start = ws.previous != null ? ws.previous : Homography.identity();
                 ws.aligner.robustFromStart = true;
+                // full resolution only first: a stand drifts by a fraction of a pixel, and on the coarse levels a
+                // heated part's broad blob outweighs the board's fine texture and can pull the fit away
+                if (ws.previous != null) {
+                    best = attempt(ws, start, 0, best);
+                    if (best != null && best.rank() == 2) { ws.aligner.robustFromStart = false; return finish(frame, ws, best); }
+                }
                 best = attempt(ws, start, fast, best);
                 ws.aligner.robustFromStart = false;
                 if (best != null && best.rank() == 2) return finish(frame, ws, best);
             }
             if (!config.method().equals("features")) {
-                List<CoarseSearch.Candidate> cands = CoarseSearch.search(ref, ws.pyramid, 2);
+                List<CoarseSearch.Candidate> cands = CoarseSearch.search(ref, ws.pyramid, KEEP);
+                ws.aligner.robustFromStart = ROBUST_COARSE;
                 for (CoarseSearch.Candidate c : cands) {
                     best = attempt(ws, c.refToFrame(), top, best);
-                    if (best != null && best.rank() == 2) return finish(frame, ws, best);
+                    if (best != null && best.rank() == 2) { ws.aligner.robustFromStart = false; return finish(frame, ws, best); }
                 }
+                ws.aligner.robustFromStart = false;
             }
             if (ref.features != null) {
                 if (ws.matcher == null) ws.matcher = new FeatureSet.Matcher(2.0);

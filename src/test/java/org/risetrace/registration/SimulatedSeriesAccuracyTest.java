@@ -75,6 +75,7 @@ class SimulatedSeriesAccuracyTest {
                     System.out.printf(Locale.ROOT, "DIAG %s %d %s %s err=%s %s%n", motion.kind(), seed, f.fileName(),
                             g.status(), g.boardCornersPx() == null ? "-" : String.format(Locale.ROOT, "%.3f",
                                     SyntheticScene.cornerError(g.boardCornersPx(), t.boardCornersPx())), g.reason());
+                if (DIAG && g.status() != RegistrationStatus.OK) diagnoseAtTruth(ref, board, f, t);
                 switch (g.status()) {
                     case OK -> {
                         double e = SyntheticScene.cornerError(g.boardCornersPx(), t.boardCornersPx());
@@ -89,6 +90,35 @@ class SimulatedSeriesAccuracyTest {
             }
         }
         return new Outcome(n, ok, weak, failed, ok == 0 ? Double.NaN : sum / ok, max);
+    }
+
+    /** Diagnostics: the grade of the true mapping, and of the alignment started at it. */
+    private static void diagnoseAtTruth(Frame ref, Board board, Frame f, Truth.TruthFrame t) {
+        RegistrationConfig cfg = RegistrationConfig.defaults();
+        ReferenceModel model = ReferenceModel.prepare(ref, board, cfg);
+        DirectRegistrar dr = new DirectRegistrar(model, cfg);
+        Pyramid p = new Pyramid();
+        p.build(f.celsius(), f.width(), f.height(), model.levels);
+        Homography boardToFrame = Homography.fromRows(t.homography().rows());
+        Homography truthRefToFrame = boardToFrame.compose(model.boardToReference.inverse()).normalized();
+        DirectRegistrar.Grade atTruth = dr.evaluate(p, truthRefToFrame, true);
+        DirectAligner al = new DirectAligner();
+        al.model = 4;
+        al.robustFromStart = true;
+        Homography h = al.align(model, p, truthRefToFrame, 0);
+        String from = "-";
+        if (h != null) {
+            DirectRegistrar.Grade g = dr.evaluate(p, h, al.converged);
+            double e = SyntheticScene.cornerError(Homographies.boardCorners(board, h.compose(model.boardToReference)),
+                    t.boardCornersPx());
+            from = String.format(Locale.ROOT, "%s err=%.3f %s", g.status(), e, g.reason());
+        }
+        System.out.printf(Locale.ROOT, "   at truth: %s %s | aligned from truth: %s%n", atTruth.status(), atTruth.reason(), from);
+        StringBuilder sb = new StringBuilder("   coarse:");
+        for (CoarseSearch.Candidate c : CoarseSearch.search(model, p, 4))
+            sb.append(String.format(Locale.ROOT, " %.2f@%.1fpx", c.score(), SyntheticScene.cornerError(
+                    Homographies.boardCorners(board, c.refToFrame().compose(model.boardToReference)), t.boardCornersPx())));
+        System.out.println(sb + " levels " + model.levels);
     }
 
     @Test

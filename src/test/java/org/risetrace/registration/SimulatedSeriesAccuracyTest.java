@@ -92,7 +92,10 @@ class SimulatedSeriesAccuracyTest {
         return new Outcome(n, ok, weak, failed, ok == 0 ? Double.NaN : sum / ok, max);
     }
 
-    /** Diagnostics: the grade of the true mapping, and of the alignment started at it. */
+    /**
+     * Diagnostics (-Dreg.diag=true): the grade of the true mapping, and of the alignment started at it; it told
+     * that the heated frames which fail do grade ok at their true mapping, so the search, not the grading, misses.
+     */
     private static void diagnoseAtTruth(Frame ref, Board board, Frame f, Truth.TruthFrame t) {
         RegistrationConfig cfg = RegistrationConfig.defaults();
         ReferenceModel model = ReferenceModel.prepare(ref, board, cfg);
@@ -114,11 +117,6 @@ class SimulatedSeriesAccuracyTest {
             from = String.format(Locale.ROOT, "%s err=%.3f %s", g.status(), e, g.reason());
         }
         System.out.printf(Locale.ROOT, "   at truth: %s %s | aligned from truth: %s%n", atTruth.status(), atTruth.reason(), from);
-        StringBuilder sb = new StringBuilder("   coarse:");
-        for (CoarseSearch.Candidate c : CoarseSearch.search(model, p, 4))
-            sb.append(String.format(Locale.ROOT, " %.2f@%.1fpx", c.score(), SyntheticScene.cornerError(
-                    Homographies.boardCorners(board, c.refToFrame().compose(model.boardToReference)), t.boardCornersPx())));
-        System.out.println(sb + " levels " + model.levels);
     }
 
     @Test
@@ -128,8 +126,9 @@ class SimulatedSeriesAccuracyTest {
         System.out.println("simulated stand: " + o);
         assertTrue(o.meanOkErrorPx() <= 0.15, "issue #4: mean <= 0.15 px on a stand; " + o);
         assertTrue(o.maxOkErrorPx() <= 1.0, "issue #4: no ok frame above 1 px; " + o);
-        // measured 121 of 140 ok (the rest weak or failed on the hottest frames); a drop below 85 % is a regression
+        // measured 122 of 140 ok, 0 failed (the rest weak on the hottest frames); a drop below 85 % is a regression
         assertTrue(o.ok() >= 0.85 * o.frames(), o.toString());
+        assertTrue(o.failed() <= 0.01 * o.frames(), "at most 1 % failed on a stand (our own bar); " + o);
     }
 
     /** Hand-held: the motion range of issue #4 item 3: +-5 degrees, +-10 % zoom, shift up to 15 % of the width. */
@@ -138,20 +137,20 @@ class SimulatedSeriesAccuracyTest {
     }
 
     @Test
-    void simulatedHandHeldOkFramesAverageWithinAQuarterPixel() {
+    void simulatedHandHeldOkFramesAverageWithinAQuarterPixelAndNoneIsAbove1Px() {
         Outcome o = handHeld();
         System.out.println("simulated hand-held: " + o);
         assertTrue(o.meanOkErrorPx() <= 0.25, "issue #4: mean <= 0.25 px hand-held; " + o);
-        // measured 94 of 140 ok; a drop below 60 % is a regression
-        assertTrue(o.ok() >= 0.6 * o.frames(), o.toString());
+        assertTrue(o.maxOkErrorPx() <= 1.0, "issue #4: no ok frame above 1 px; " + o);
+        // measured 113 of 140 ok; a drop below 75 % is a regression
+        assertTrue(o.ok() >= 0.75 * o.frames(), o.toString());
     }
 
     @Test
-    @Disabled("issue #4 requirement NOT met yet: on heated simulated hand-held series 20 of 140 frames fail and one "
-            + "ok frame is 1.27 px off (DEVELOPERS.md, registration: open problems)")
-    void simulatedHandHeldFramesAlmostNeverFailAndNoOkFrameIsAbove1Px() {
+    @Disabled("issue #4 requirement NOT met yet: on heated simulated hand-held series 11 of 140 frames (7.9 %) fail "
+            + "(DEVELOPERS.md, registration: open problems)")
+    void simulatedHandHeldFramesAlmostNeverFail() {
         Outcome o = handHeld();
         assertTrue(o.failed() <= 0.01 * o.frames(), "issue #4: <= 1 % failed; " + o);
-        assertTrue(o.maxOkErrorPx() <= 1.0, "issue #4: no ok frame above 1 px; " + o);
     }
 }

@@ -117,6 +117,13 @@ class SimulatedSeriesAccuracyTest {
             from = String.format(Locale.ROOT, "%s err=%.3f %s", g.status(), e, g.reason());
         }
         System.out.printf(Locale.ROOT, "   at truth: %s %s | aligned from truth: %s%n", atTruth.status(), atTruth.reason(), from);
+        for (int l = model.levels - 1; l < model.levels; l++)
+            CoarseSearch.clipInPlace(p.bandPass[l], p.widths[l] * p.heights[l], model.level[l].t);
+        StringBuilder sb = new StringBuilder("   coarse:");
+        for (CoarseSearch.Candidate c : CoarseSearch.search(model, p, 4))
+            sb.append(String.format(Locale.ROOT, " %.2f@%.1fpx", c.score(), SyntheticScene.cornerError(
+                    Homographies.boardCorners(board, c.refToFrame().compose(model.boardToReference)), t.boardCornersPx())));
+        System.out.println(sb);
     }
 
     @Test
@@ -142,13 +149,13 @@ class SimulatedSeriesAccuracyTest {
         System.out.println("simulated hand-held: " + o);
         assertTrue(o.meanOkErrorPx() <= 0.25, "issue #4: mean <= 0.25 px hand-held; " + o);
         assertTrue(o.maxOkErrorPx() <= 1.0, "issue #4: no ok frame above 1 px; " + o);
-        // measured 113 of 140 ok; a drop below 75 % is a regression
-        assertTrue(o.ok() >= 0.75 * o.frames(), o.toString());
+        // measured 122 of 140 ok; a drop below 80 % is a regression
+        assertTrue(o.ok() >= 0.8 * o.frames(), o.toString());
     }
 
     @Test
-    @Disabled("issue #4 requirement NOT met yet: on heated simulated hand-held series 11 of 140 frames (7.9 %) fail "
-            + "(DEVELOPERS.md, registration: open problems)")
+    @Disabled("issue #4 requirement NOT met yet: on heated simulated hand-held series 2 of 140 frames (1.4 %) fail, "
+            + "the limit is 1 % (DEVELOPERS.md, registration: open problems)")
     void simulatedHandHeldFramesAlmostNeverFail() {
         Outcome o = handHeld();
         assertTrue(o.failed() <= 0.01 * o.frames(), "issue #4: <= 1 % failed; " + o);

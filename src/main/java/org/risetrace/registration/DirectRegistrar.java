@@ -99,7 +99,9 @@ final class DirectRegistrar implements Registrar {
                     if (g != null && g.betterThan(best)) best = g;
                     if (best != null && best.rank() == 2) { ws.aligner.robustFromStart = false; return finish(frame, ws, best); }
                 }
-                best = attempt(ws, start, fast, best);
+                // from the coarser level only when the full-resolution try came close (weak): a start that failed
+                // outright is a new pose (hand-held), which the coarse search finds for less
+                if (ws.previous == null || best == null || best.rank() == 1) best = attempt(ws, start, fast, best);
                 ws.aligner.robustFromStart = false;
                 if (best != null && best.rank() == 2) return finish(frame, ws, best);
             }

@@ -21,6 +21,8 @@ final class ReferenceModel {
      * Check patches on a grid x grid lattice over the board: 5 x 5 on small frames, up to 8 x 8 on large ones (on
      * a 640 x 512 simulated board only 5 of 25 lattice patches were textured enough, one short of an ok grade).
      */
+    static final int MAX_PATCHES = 25;
+
     static int grid(int width, int height) {
         return Math.max(5, Math.min(8, Math.min(width, height) / 64));
     }
@@ -197,8 +199,12 @@ final class ReferenceModel {
         // keep patches with a well-conditioned structure tensor (Shi and Tomasi 1994): smallest eigenvalue at least
         // a tenth of the best patch's
         double best = strength.stream().mapToDouble(Double::doubleValue).max().orElse(0);
+        List<Integer> order = new ArrayList<>();
+        for (int i = 0; i < candidates.size(); i++) if (strength.get(i) >= 0.1 * best) order.add(i);
+        // at most MAX_PATCHES, the best-conditioned (grading cost grows with them; 25 is what a 5 x 5 lattice gives)
+        order.sort((a, b) -> Double.compare(strength.get(b), strength.get(a)));
         List<Patch> out = new ArrayList<>();
-        for (int i = 0; i < candidates.size(); i++) if (strength.get(i) >= 0.1 * best) out.add(candidates.get(i));
+        for (int i = 0; i < Math.min(MAX_PATCHES, order.size()); i++) out.add(candidates.get(order.get(i)));
         return out;
     }
 

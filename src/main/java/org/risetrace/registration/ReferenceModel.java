@@ -17,8 +17,15 @@ final class ReferenceModel {
     static final int MAX_TEMPLATE_PIXELS = 5000;
     /** Score pixels at full resolution at most (a regular subsample of the board). */
     static final int MAX_SCORE_PIXELS = 8000;
-    /** Check patches on a GRID x GRID lattice over the board. */
-    static final int GRID = 5;
+    /**
+     * Check patches on a grid x grid lattice over the board: 5 x 5 on small frames, up to 8 x 8 on large ones (on
+     * a 640 x 512 simulated board only 5 of 25 lattice patches were textured enough, one short of an ok grade).
+     */
+    static final int MAX_PATCHES = 25;
+
+    static int grid(int width, int height) {
+        return Math.max(5, Math.min(8, Math.min(width, height) / 64));
+    }
 
     final String referenceName;
     final Board board;
@@ -160,9 +167,10 @@ final class ReferenceModel {
         List<Patch> candidates = new ArrayList<>();
         List<Double> strength = new ArrayList<>();
         double[][] c = referenceCornersPx;
-        for (int gj = 0; gj < GRID; gj++)
-            for (int gi = 0; gi < GRID; gi++) {
-                double u = (gi + 0.5) / GRID, v = (gj + 0.5) / GRID;
+        int grid = grid(width, height);
+        for (int gj = 0; gj < grid; gj++)
+            for (int gi = 0; gi < grid; gi++) {
+                double u = (gi + 0.5) / grid, v = (gj + 0.5) / grid;
                 // bilinear interpolation of the outline quad (close enough to the projective centre for placement)
                 double px = (1 - v) * ((1 - u) * c[0][0] + u * c[1][0]) + v * ((1 - u) * c[3][0] + u * c[2][0]);
                 double py = (1 - v) * ((1 - u) * c[0][1] + u * c[1][1]) + v * ((1 - u) * c[3][1] + u * c[2][1]);
@@ -191,8 +199,12 @@ final class ReferenceModel {
         // keep patches with a well-conditioned structure tensor (Shi and Tomasi 1994): smallest eigenvalue at least
         // a tenth of the best patch's
         double best = strength.stream().mapToDouble(Double::doubleValue).max().orElse(0);
+        List<Integer> order = new ArrayList<>();
+        for (int i = 0; i < candidates.size(); i++) if (strength.get(i) >= 0.1 * best) order.add(i);
+        // at most MAX_PATCHES, the best-conditioned (grading cost grows with them; 25 is what a 5 x 5 lattice gives)
+        order.sort((a, b) -> Double.compare(strength.get(b), strength.get(a)));
         List<Patch> out = new ArrayList<>();
-        for (int i = 0; i < candidates.size(); i++) if (strength.get(i) >= 0.1 * best) out.add(candidates.get(i));
+        for (int i = 0; i < Math.min(MAX_PATCHES, order.size()); i++) out.add(candidates.get(order.get(i)));
         return out;
     }
 

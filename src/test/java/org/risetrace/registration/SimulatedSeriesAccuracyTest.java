@@ -31,6 +31,7 @@ import static org.junit.jupiter.api.Assertions.assertTrue;
  */
 class SimulatedSeriesAccuracyTest {
     static final int SERIES = 20, FRAMES = 8;
+    static final boolean DIAG = Boolean.getBoolean("reg.diag");
 
     @TempDir
     Path dir;
@@ -69,6 +70,12 @@ class SimulatedSeriesAccuracyTest {
                 assertTrue(t.file().equals(f.fileName()), "truth in frame order");
                 FrameRegistration g = reg.register(f);
                 n++;
+                if (DIAG && g.status() != RegistrationStatus.OK || DIAG && g.boardCornersPx() != null
+                        && SyntheticScene.cornerError(g.boardCornersPx(), t.boardCornersPx()) > 0.5)
+                    System.out.printf(Locale.ROOT, "DIAG %s %d %s %s err=%s %s%n", motion.kind(), seed, f.fileName(),
+                            g.status(), g.boardCornersPx() == null ? "-" : String.format(Locale.ROOT, "%.3f",
+                                    SyntheticScene.cornerError(g.boardCornersPx(), t.boardCornersPx())), g.reason());
+                if (DIAG && g.status() != RegistrationStatus.OK) diagnoseAtTruth(ref, board, f, t);
                 switch (g.status()) {
                     case OK -> {
                         double e = SyntheticScene.cornerError(g.boardCornersPx(), t.boardCornersPx());
@@ -85,6 +92,40 @@ class SimulatedSeriesAccuracyTest {
         return new Outcome(n, ok, weak, failed, ok == 0 ? Double.NaN : sum / ok, max);
     }
 
+    /**
+     * Diagnostics (-Dreg.diag=true): the grade of the true mapping, and of the alignment started at it; it told
+     * that the heated frames which fail do grade ok at their true mapping, so the search, not the grading, misses.
+     */
+    private static void diagnoseAtTruth(Frame ref, Board board, Frame f, Truth.TruthFrame t) {
+        RegistrationConfig cfg = RegistrationConfig.defaults();
+        ReferenceModel model = ReferenceModel.prepare(ref, board, cfg);
+        DirectRegistrar dr = new DirectRegistrar(model, cfg);
+        Pyramid p = new Pyramid();
+        p.build(f.celsius(), f.width(), f.height(), model.levels);
+        Homography boardToFrame = Homography.fromRows(t.homography().rows());
+        Homography truthRefToFrame = boardToFrame.compose(model.boardToReference.inverse()).normalized();
+        DirectRegistrar.Grade atTruth = dr.evaluate(p, truthRefToFrame, true);
+        DirectAligner al = new DirectAligner();
+        al.model = 4;
+        al.robustFromStart = true;
+        Homography h = al.align(model, p, truthRefToFrame, 0);
+        String from = "-";
+        if (h != null) {
+            DirectRegistrar.Grade g = dr.evaluate(p, h, al.converged);
+            double e = SyntheticScene.cornerError(Homographies.boardCorners(board, h.compose(model.boardToReference)),
+                    t.boardCornersPx());
+            from = String.format(Locale.ROOT, "%s err=%.3f %s", g.status(), e, g.reason());
+        }
+        System.out.printf(Locale.ROOT, "   at truth: %s %s | aligned from truth: %s%n", atTruth.status(), atTruth.reason(), from);
+        for (int l = model.levels - 1; l < model.levels; l++)
+            CoarseSearch.clipInPlace(p.bandPass[l], p.widths[l] * p.heights[l], model.level[l].t);
+        StringBuilder sb = new StringBuilder("   coarse:");
+        for (CoarseSearch.Candidate c : CoarseSearch.search(model, p, 4))
+            sb.append(String.format(Locale.ROOT, " %.2f@%.1fpx", c.score(), SyntheticScene.cornerError(
+                    Homographies.boardCorners(board, c.refToFrame().compose(model.boardToReference)), t.boardCornersPx())));
+        System.out.println(sb);
+    }
+
     @Test
     void simulatedStandSeriesRegisterWithinFifteenHundredthsOfAPixel() {
         // drift 0.15 px per frame: five times the simulator's default, so the test exercises real motion
@@ -92,8 +133,9 @@ class SimulatedSeriesAccuracyTest {
         System.out.println("simulated stand: " + o);
         assertTrue(o.meanOkErrorPx() <= 0.15, "issue #4: mean <= 0.15 px on a stand; " + o);
         assertTrue(o.maxOkErrorPx() <= 1.0, "issue #4: no ok frame above 1 px; " + o);
-        // measured 121 of 140 ok (the rest weak or failed on the hottest frames); a drop below 85 % is a regression
+        // measured 122 of 140 ok, 0 failed (the rest weak on the hottest frames); a drop below 85 % is a regression
         assertTrue(o.ok() >= 0.85 * o.frames(), o.toString());
+        assertTrue(o.failed() <= 0.01 * o.frames(), "at most 1 % failed on a stand (our own bar); " + o);
     }
 
     /** Hand-held: the motion range of issue #4 item 3: +-5 degrees, +-10 % zoom, shift up to 15 % of the width. */
@@ -102,20 +144,20 @@ class SimulatedSeriesAccuracyTest {
     }
 
     @Test
-    void simulatedHandHeldOkFramesAverageWithinAQuarterPixel() {
+    void simulatedHandHeldOkFramesAverageWithinAQuarterPixelAndNoneIsAbove1Px() {
         Outcome o = handHeld();
         System.out.println("simulated hand-held: " + o);
         assertTrue(o.meanOkErrorPx() <= 0.25, "issue #4: mean <= 0.25 px hand-held; " + o);
-        // measured 90 of 140 ok; a drop below 60 % is a regression
-        assertTrue(o.ok() >= 0.6 * o.frames(), o.toString());
+        assertTrue(o.maxOkErrorPx() <= 1.0, "issue #4: no ok frame above 1 px; " + o);
+        // measured 122 of 140 ok; a drop below 80 % is a regression
+        assertTrue(o.ok() >= 0.8 * o.frames(), o.toString());
     }
 
     @Test
-    @Disabled("issue #4 requirement NOT met yet: on heated simulated hand-held series 23 of 140 frames fail and one "
-            + "ok frame is 1.27 px off (DEVELOPERS.md, registration: open problems)")
-    void simulatedHandHeldFramesAlmostNeverFailAndNoOkFrameIsAbove1Px() {
+    @Disabled("issue #4 requirement NOT met yet: on heated simulated hand-held series 2 of 140 frames (1.4 %) fail, "
+            + "the limit is 1 % (DEVELOPERS.md, registration: open problems)")
+    void simulatedHandHeldFramesAlmostNeverFail() {
         Outcome o = handHeld();
         assertTrue(o.failed() <= 0.01 * o.frames(), "issue #4: <= 1 % failed; " + o);
-        assertTrue(o.maxOkErrorPx() <= 1.0, "issue #4: no ok frame above 1 px; " + o);
     }
 }

@@ -44,4 +44,17 @@ class ArchitectureTest {
         mayNotUse("analysis", "report", "sim");
         mayNotUse("report", "sim");
     }
+
+    @Test
+    void simulatorUsesOnlyTheHomographyValueOfRegistration() {
+        noClasses().that().resideInAPackage("org.risetrace.sim..")
+                .should().dependOnClassesThat(
+                        com.tngtech.archunit.base.DescribedPredicate.describe("registration classes other than Homography",
+                                (com.tngtech.archunit.core.domain.JavaClass c) ->
+                                        c.getBaseComponentType().getPackageName().startsWith("org.risetrace.registration")
+                                                && !c.getBaseComponentType().getName()
+                                                .equals("org.risetrace.registration.Homography")))
+                .check(CLASSES);
+        mayNotUse("sim", "analysis", "report");
+    }
 }

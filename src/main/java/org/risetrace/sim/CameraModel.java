@@ -1,6 +1,7 @@
 package org.risetrace.sim;
 
 
+import org.risetrace.registration.Homography;
 import java.util.SplittableRandom;
 
 /**
@@ -13,7 +14,7 @@ public final class CameraModel {
     }
 
     /** The reference pose's homography, board mm to image px. */
-    public static PlaneMapping basePose(Scenario.CameraSpec c, double boardWidthMm, double boardHeightMm) {
+    public static Homography basePose(Scenario.CameraSpec c, double boardWidthMm, double boardHeightMm) {
         double rot = Math.toRadians(c.rotationOrZero());
         double tilt = Math.toRadians(c.tiltOrZero());
         double axis = Math.toRadians(c.tiltAxisOrZero());
@@ -34,19 +35,19 @@ public final class CameraModel {
         double[] m = {r[0], r[1], 0, r[3], r[4], 0, r[6], r[7], d};
         double[] k = {f, 0, cx, 0, f, cy, 0, 0, 1};
         double[] centre = {1, 0, -boardWidthMm / 2, 0, 1, -boardHeightMm / 2, 0, 0, 1};
-        return new PlaneMapping(multiply(multiply(k, m), centre)).normalized();
+        return new Homography(multiply(multiply(k, m), centre)).normalized();
     }
 
     /** The per-frame motion (image px to image px) of each frame; frame 0 is the reference (identity). */
-    public static PlaneMapping[] motions(Scenario.CameraSpec c, int frames, long seed) {
-        PlaneMapping[] out = new PlaneMapping[frames];
+    public static Homography[] motions(Scenario.CameraSpec c, int frames, long seed) {
+        Homography[] out = new Homography[frames];
         SplittableRandom rnd = new SplittableRandom(seed ^ 0x6D6F74696F6EL);
         Scenario.Motion m = c.motionOrDefault();
         double cx = (c.width() - 1) / 2.0, cy = (c.height() - 1) / 2.0;
         double tx = 0, ty = 0;
         for (int k = 0; k < frames; k++) {
             if (k == 0) {
-                out[k] = PlaneMapping.identity();
+                out[k] = Homography.identity();
                 continue;
             }
             double angle, scale;
@@ -68,16 +69,16 @@ public final class CameraModel {
     }
 
     /** p' = c + s R(angle) (p - c) + t. */
-    public static PlaneMapping similarityAbout(double cx, double cy, double angle, double scale, double tx, double ty) {
+    public static Homography similarityAbout(double cx, double cy, double angle, double scale, double tx, double ty) {
         double a = scale * StrictMath.cos(angle), b = scale * StrictMath.sin(angle);
-        return new PlaneMapping(new double[]{
+        return new Homography(new double[]{
                 a, -b, cx - a * cx + b * cy + tx,
                 b, a, cy - b * cx - a * cy + ty,
                 0, 0, 1});
     }
 
     /** Board corners TL, TR, BR, BL mapped by h. */
-    public static double[][] corners(PlaneMapping h, double wMm, double hMm) {
+    public static double[][] corners(Homography h, double wMm, double hMm) {
         return new double[][]{h.apply(0, 0), h.apply(wMm, 0), h.apply(wMm, hMm), h.apply(0, hMm)};
     }
 

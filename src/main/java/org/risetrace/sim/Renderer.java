@@ -1,6 +1,7 @@
 package org.risetrace.sim;
 
 
+import org.risetrace.registration.Homography;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.SplittableRandom;
@@ -193,7 +194,7 @@ final class Renderer {
      * @param boardToFrame homography board mm to frame px
      * @param noiseSeed seed of this frame's temporal noise
      */
-    void render(float[] cellsC, double[] partsC, double ambientC, PlaneMapping boardToFrame, long noiseSeed, Buffers buf) {
+    void render(float[] cellsC, double[] partsC, double ambientC, Homography boardToFrame, long noiseSeed, Buffers buf) {
         Scenario.BoardSpec b = s.board();
         double dx = b.widthMm() / tw, dy = b.heightMm() / th;
         float[] tex = buf.texApparent;

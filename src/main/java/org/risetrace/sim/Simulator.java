@@ -1,5 +1,6 @@
 package org.risetrace.sim;
 
+import org.risetrace.registration.Homography;
 import com.fasterxml.jackson.core.util.DefaultIndenter;
 import com.fasterxml.jackson.core.util.DefaultPrettyPrinter;
 import com.fasterxml.jackson.databind.ObjectWriter;
@@ -123,9 +124,9 @@ public final class Simulator {
 
         int n = s.frames().count();
         double wMm = s.board().widthMm(), hMm = s.board().heightMm();
-        PlaneMapping base = CameraModel.basePose(s.camera(), wMm, hMm);
-        PlaneMapping[] motion = CameraModel.motions(s.camera(), n, s.seed());
-        PlaneMapping[] boardToFrame = new PlaneMapping[n];
+        Homography base = CameraModel.basePose(s.camera(), wMm, hMm);
+        Homography[] motion = CameraModel.motions(s.camera(), n, s.seed());
+        Homography[] boardToFrame = new Homography[n];
         for (int k = 0; k < n; k++) boardToFrame[k] = motion[k].compose(base);
 
         FrameEncoding enc = s.camera().encodingOrDefault();

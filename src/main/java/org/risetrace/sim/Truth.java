@@ -1,5 +1,6 @@
 package org.risetrace.sim;
 
+import org.risetrace.registration.Homography;
 import com.fasterxml.jackson.annotation.JsonIgnoreProperties;
 import com.fasterxml.jackson.annotation.JsonInclude;
 import com.fasterxml.jackson.annotation.JsonProperty;
@@ -68,7 +69,7 @@ public record Truth(
                              @JsonProperty("ambient_c") double ambientC, @JsonProperty("power_w") double powerW,
                              @JsonProperty("board_corners_px") double[][] boardCornersPx,
                              @JsonProperty("board_to_frame") double[][] boardToFrame) {
-        public PlaneMapping homography() { return PlaneMapping.fromRows(boardToFrame); }
+        public Homography homography() { return Homography.fromRows(boardToFrame); }
     }
 
     /** A part left out of board.json: where it is. */

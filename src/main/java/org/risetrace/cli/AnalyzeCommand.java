@@ -41,14 +41,8 @@ public final class AnalyzeCommand implements Callable<Integer> {
     @Option(names = "--board", paramLabel = "<board.json>", description = "board file (default: board.json in the series folder)")
     Path board;
 
-    @Option(names = "--out", paramLabel = "<dir>", description = "output folder (default: risetrace-out/<series name>)")
-    Path out;
-
-    @Option(names = "--json", description = "print analysis.json on stdout; messages go to stderr")
-    boolean json;
-
-    @Option(names = "--profile", paramLabel = "<name|file>", description = "calibration profile (overrides series.json)")
-    String profile;
+    @CommandLine.Mixin
+    OutputOptions output = new OutputOptions();
 
     @CommandLine.Mixin
     Tunables tunables = new Tunables();
@@ -97,7 +91,7 @@ public final class AnalyzeCommand implements Callable<Integer> {
         AnalysisOptions options = tunables.options(spec.commandLine());
         PrintWriter err = spec.commandLine().getErr();
         if (!Files.isDirectory(series)) throw new InputRejected(series, "not a folder", "name the folder of frames");
-        Series s = Series.open(series, profile, org.risetrace.io.ReadContext.DEFAULT_MAX_PIXELS);
+        Series s = Series.open(series, output.profile, org.risetrace.io.ReadContext.DEFAULT_MAX_PIXELS);
         for (String w : s.warnings()) err.println("risetrace: " + w);
         Path boardFile = board != null ? board : series.resolve("board.json");
         if (!Files.isRegularFile(boardFile))
@@ -105,9 +99,9 @@ public final class AnalyzeCommand implements Callable<Integer> {
         Board b = BoardFile.read(boardFile, Materials.load().names());
         Analysis a = SeriesAnalyzer.analyze(s, b, boardFile, series.toString(), options,
                 SeriesAnalyzer.emissivity(s.profile()), tunables.threads(), progress(err));
-        Path dir = out != null ? out : Path.of("risetrace-out", series.toAbsolutePath().normalize().getFileName().toString());
+        Path dir = output.out != null ? output.out : Path.of("risetrace-out", series.toAbsolutePath().normalize().getFileName().toString());
         writeOutputs(a, dir, s.sidecar() == null ? null : s.sidecar().notes());
-        if (json) {
+        if (output.json) {
             PrintWriter o = spec.commandLine().getOut();
             o.println(toJson(a));
             o.flush();

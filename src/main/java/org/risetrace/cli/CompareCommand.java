@@ -36,14 +36,8 @@ public final class CompareCommand implements Callable<Integer> {
     @Option(names = "--board", paramLabel = "<board.json>", description = "board file (default: board.json beside <before>)")
     Path board;
 
-    @Option(names = "--out", paramLabel = "<dir>", description = "output folder (default: risetrace-out/compare)")
-    Path out;
-
-    @Option(names = "--json", description = "print analysis.json on stdout; messages go to stderr")
-    boolean json;
-
-    @Option(names = "--profile", paramLabel = "<name|file>", description = "calibration profile (overrides series.json)")
-    String profile;
+    @CommandLine.Mixin
+    OutputOptions output = new OutputOptions();
 
     @CommandLine.Mixin
     AnalyzeCommand.Tunables tunables = new AnalyzeCommand.Tunables();
@@ -51,14 +45,14 @@ public final class CompareCommand implements Callable<Integer> {
     @Override
     public Integer call() {
         PrintWriter err = spec.commandLine().getErr();
-        Analysis a = run(before, after, board, profile, tunables, spec.commandLine(), err);
-        Path dir = out != null ? out : Path.of("risetrace-out", "compare");
+        Analysis a = run(before, after, board, output.profile, tunables, spec.commandLine(), err);
+        Path dir = output.out != null ? output.out : Path.of("risetrace-out", "compare");
         try {
             ComparisonReport.writeAll(a, dir, null);
         } catch (java.io.UncheckedIOException e) {
             throw new InputRejected(dir, "cannot write the results: " + e.getCause().getMessage());
         }
-        if (json) spec.commandLine().getOut().println(AnalyzeCommand.toJson(a));
+        if (output.json) spec.commandLine().getOut().println(AnalyzeCommand.toJson(a));
         else {
             spec.commandLine().getOut().println(AnalyzeCommand.line(after.getFileName() + " vs " + before.getFileName(),
                     a.result().verdict()));

@@ -129,6 +129,8 @@ final class DirectRegistrar implements Registrar {
                     remember(ws, frame, chained.boardToFrame().compose(ref.boardToReference.inverse()));
                     return chained;
                 }
+                if (chained != null && chained.status() == RegistrationStatus.WEAK && (best == null || best.rank() == 0))
+                    return chained;
             }
             if (best == null) return failed(frame, "no mapping found: nothing in the frame matches the reference");
             return finish(frame, ws, best);
@@ -183,7 +185,7 @@ final class DirectRegistrar implements Registrar {
             org.risetrace.board.Board b = new org.risetrace.board.Board(ref.board.name(), ref.board.sizeMm(),
                     new org.risetrace.board.Outline(name, corners, null), ref.board.parts(), ref.board.ambient());
             try {
-                ws.chain = new DirectRegistrar(ReferenceModel.prepare(ws.lastGood, b, config.withMethod("search")),
+                ws.chain = new DirectRegistrar(ReferenceModel.prepareHeated(ws.lastGood, b, config.withMethod("search")),
                         config.withMethod("auto"), false);
             } catch (RuntimeException e) {
                 return null;

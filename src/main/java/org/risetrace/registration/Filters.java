@@ -30,36 +30,41 @@ final class Filters {
         return k;
     }
 
+    /** Rows convolved with a symmetric 7-tap kernel (radius 3); the interior without clamping, pairs folded. */
     private static void convolveRows(float[] src, float[] dst, int w, int h, float[] k) {
         int r = k.length / 2;
+        float k0 = k[3], k1 = k[4], k2 = k[5], k3 = k[6];
         for (int y = 0; y < h; y++) {
             int row = y * w;
             for (int x = 0; x < w; x++) {
+                if (x == r && w > 2 * r) {
+                    for (int i = row + r, end = row + w - r; i < end; i++)
+                        dst[i] = k0 * src[i] + k1 * (src[i - 1] + src[i + 1]) + k2 * (src[i - 2] + src[i + 2])
+                                + k3 * (src[i - 3] + src[i + 3]);
+                    x = w - r - 1;
+                    continue;
+                }
                 float s = 0;
-                if (x >= r && x < w - r) {
-                    int b = row + x - r;
-                    for (int i = 0; i < k.length; i++) s += k[i] * src[b + i];
-                } else {
-                    for (int i = -r; i <= r; i++) {
-                        int xx = Math.min(w - 1, Math.max(0, x + i));
-                        s += k[i + r] * src[row + xx];
-                    }
+                for (int i = -r; i <= r; i++) {
+                    int xx = Math.min(w - 1, Math.max(0, x + i));
+                    s += k[i + r] * src[row + xx];
                 }
                 dst[row + x] = s;
             }
         }
     }
 
+    /** Columns convolved with a symmetric 7-tap kernel (radius 3), borders clamped, pairs of rows folded. */
     private static void convolveCols(float[] src, float[] dst, int w, int h, float[] k) {
-        int r = k.length / 2;
+        float k0 = k[3], k1 = k[4], k2 = k[5], k3 = k[6];
         for (int y = 0; y < h; y++) {
             int row = y * w;
-            java.util.Arrays.fill(dst, row, row + w, 0f);
-            for (int i = -r; i <= r; i++) {
-                int yy = Math.min(h - 1, Math.max(0, y + i)) * w;
-                float kv = k[i + r];
-                for (int x = 0; x < w; x++) dst[row + x] += kv * src[yy + x];
-            }
+            int m1 = Math.max(0, y - 1) * w, p1 = Math.min(h - 1, y + 1) * w;
+            int m2 = Math.max(0, y - 2) * w, p2 = Math.min(h - 1, y + 2) * w;
+            int m3 = Math.max(0, y - 3) * w, p3 = Math.min(h - 1, y + 3) * w;
+            for (int x = 0; x < w; x++)
+                dst[row + x] = k0 * src[row + x] + k1 * (src[m1 + x] + src[p1 + x]) + k2 * (src[m2 + x] + src[p2 + x])
+                        + k3 * (src[m3 + x] + src[p3 + x]);
         }
     }
 
@@ -70,10 +75,20 @@ final class Filters {
             int row = y * w;
             float s = 0;
             for (int i = -r; i <= r; i++) s += src[row + Math.min(w - 1, Math.max(0, i))];
-            for (int x = 0; x < w; x++) {
+            int x = 0;
+            // left border: the sample leaving is clamped to the first pixel
+            for (; x < w && x - r < 0; x++) {
                 tmp[row + x] = s * inv;
-                int add = Math.min(w - 1, x + r + 1), sub = Math.max(0, x - r);
-                s += src[row + add] - src[row + sub];
+                s += src[row + Math.min(w - 1, x + r + 1)] - src[row];
+            }
+            // interior: neither end clamped
+            for (; x + r + 1 <= w - 1; x++) {
+                tmp[row + x] = s * inv;
+                s += src[row + x + r + 1] - src[row + x - r];
+            }
+            for (; x < w; x++) {
+                tmp[row + x] = s * inv;
+                s += src[row + w - 1] - src[row + Math.max(0, x - r)];
             }
         }
         float[] acc = new float[w];

@@ -38,16 +38,28 @@ final class ReferenceModel {
     final List<Patch> patches;
     final FeatureSet features;
     final double referenceBandStd;
+    /** True for a chain link's reference: a frame taken during heating rather than the user's cold reference. */
+    final boolean heatedReference;
 
     /** Template pixels of one level (level coordinates) and their steepest-descent images. */
     static final class Level {
         final int w, h, n;
         final float[] x, y, t, sd;
+        /** The steepest-descent images reduced to a similarity (4 per pixel: sd0 + sd3, sd1 - sd2, sd4, sd5). */
+        final float[] sd4;
         final double cx, cy, sc;
 
         Level(int w, int h, float[] x, float[] y, float[] t, float[] sd, double cx, double cy, double sc) {
             this.w = w; this.h = h; this.n = x.length; this.x = x; this.y = y; this.t = t; this.sd = sd;
             this.cx = cx; this.cy = cy; this.sc = sc;
+            this.sd4 = new float[4 * n];
+            for (int i = 0; i < n; i++) {
+                int o = 8 * i;
+                sd4[4 * i] = sd[o] + sd[o + 3];
+                sd4[4 * i + 1] = sd[o + 1] - sd[o + 2];
+                sd4[4 * i + 2] = sd[o + 4];
+                sd4[4 * i + 3] = sd[o + 5];
+            }
         }
     }
 
@@ -64,7 +76,8 @@ final class ReferenceModel {
         }
     }
 
-    private ReferenceModel(Frame ref, Board board, RegistrationConfig config) {
+    private ReferenceModel(Frame ref, Board board, RegistrationConfig config, boolean heatedReference) {
+        this.heatedReference = heatedReference;
         this.referenceName = board.outline().frame();
         this.board = board;
         this.width = ref.width();
@@ -101,7 +114,12 @@ final class ReferenceModel {
     }
 
     static ReferenceModel prepare(Frame ref, Board board, RegistrationConfig config) {
-        return new ReferenceModel(ref, board, config);
+        return new ReferenceModel(ref, board, config, false);
+    }
+
+    /** A frame graded ok during heating, prepared as the reference of a chain link. */
+    static ReferenceModel prepareHeated(Frame ref, Board board, RegistrationConfig config) {
+        return new ReferenceModel(ref, board, config, true);
     }
 
     /** Board corners in level coordinates. */
@@ -198,7 +216,12 @@ final class ReferenceModel {
             }
         // keep patches with a well-conditioned structure tensor (Shi and Tomasi 1994): smallest eigenvalue at least
         // a tenth of the best patch's
-        double best = strength.stream().mapToDouble(Double::doubleValue).max().orElse(0);
+        // on a heated frame (a chain link's reference) one hot part's patch dwarfs the rest and left fewer than three
+        // to check with, so there the bar is a tenth of the upper quartile; on the cold reference the best patch's
+        // (the quartile there added weak patches that disagreed: bundled cap-short fell from 60 to 2 ok frames)
+        double[] sorted = strength.stream().mapToDouble(Double::doubleValue).sorted().toArray();
+        double best = sorted.length == 0 ? 0
+                : sorted[heatedReference ? (int) Math.floor(0.75 * (sorted.length - 1)) : sorted.length - 1];
         List<Integer> order = new ArrayList<>();
         for (int i = 0; i < candidates.size(); i++) if (strength.get(i) >= 0.1 * best) order.add(i);
         // at most MAX_PATCHES, the best-conditioned (grading cost grows with them; 25 is what a 5 x 5 lattice gives)

@@ -1,0 +1,61 @@
+package org.risetrace.registration;
+
+import org.junit.jupiter.api.Test;
+
+import java.util.Random;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+
+/**
+ * The fast filters (running sums, folded kernels, unclamped interiors) against their definitions evaluated
+ * directly, pixel by pixel, with clamped borders: a box mean is the average of the 2r + 1 neighbours along each
+ * axis, the Gaussian the normalised exp(-i^2 / 2 sigma^2) weights of radius 3 (common practice).
+ */
+class FiltersTest {
+    private static int clamp(int v, int n) { return Math.min(n - 1, Math.max(0, v)); }
+
+    private static float[] random(int n, long seed) {
+        Random r = new Random(seed);
+        float[] a = new float[n];
+        for (int i = 0; i < n; i++) a[i] = (float) (20 + 5 * r.nextGaussian());
+        return a;
+    }
+
+    @Test
+    void boxMeanEqualsTheDirectAverageIncludingBorders() {
+        for (int[] size : new int[][]{{37, 23}, {9, 5}, {3, 12}, {64, 1}}) {
+            int w = size[0], h = size[1], r = 4;
+            float[] src = random(w * h, w * 31L + h);
+            float[] dst = new float[w * h], tmp = new float[w * h];
+            Filters.boxMean(src, dst, tmp, w, h, r);
+            for (int y = 0; y < h; y++)
+                for (int x = 0; x < w; x++) {
+                    double s = 0;
+                    for (int j = -r; j <= r; j++)
+                        for (int i = -r; i <= r; i++) s += src[clamp(y + j, h) * w + clamp(x + i, w)];
+                    assertEquals(s / ((2 * r + 1) * (2 * r + 1)), dst[y * w + x], 1e-3, w + "x" + h + " at " + x + "," + y);
+                }
+        }
+    }
+
+    @Test
+    void gaussianEqualsTheDirectWeightedSumIncludingBorders() {
+        for (int[] size : new int[][]{{41, 29}, {7, 6}, {5, 9}}) {
+            int w = size[0], h = size[1];
+            float[] src = random(w * h, w * 17L + h);
+            float[] dst = new float[w * h], tmp = new float[w * h];
+            Filters.gaussian1(src, dst, tmp, w, h);
+            double[] k = new double[7];
+            double sum = 0;
+            for (int i = -3; i <= 3; i++) { k[i + 3] = Math.exp(-i * i / 2.0); sum += k[i + 3]; }
+            for (int y = 0; y < h; y++)
+                for (int x = 0; x < w; x++) {
+                    double s = 0;
+                    for (int j = -3; j <= 3; j++)
+                        for (int i = -3; i <= 3; i++)
+                            s += k[j + 3] * k[i + 3] / (sum * sum) * src[clamp(y + j, h) * w + clamp(x + i, w)];
+                    assertEquals(s, dst[y * w + x], 1e-3, w + "x" + h + " at " + x + "," + y);
+                }
+        }
+    }
+}

@@ -87,6 +87,28 @@ final class CoarseSearch {
         return best;
     }
 
+    /** Normalised cross-correlation of the frame's top level with the template through one mapping (reference to frame). */
+    static double score(ReferenceModel ref, Pyramid frame, Homography refToFrame) {
+        int l = ref.levels - 1;
+        ReferenceModel.Level lv = ref.level[l];
+        if (lv.n < 16) return Double.NaN;
+        double[] m = Pyramid.toLevel(refToFrame, l);
+        float[] img = frame.bandPass[l];
+        int w = frame.widths[l], h = frame.heights[l], valid = 0;
+        double sf = 0, sf2 = 0, sft = 0, st = 0, st2 = 0;
+        for (int i = 0; i < lv.n; i++) {
+            double x = lv.x[i], y = lv.y[i], z = m[6] * x + m[7] * y + m[8];
+            float f = Filters.bilinear(img, w, h, (m[0] * x + m[1] * y + m[2]) / z, (m[3] * x + m[4] * y + m[5]) / z);
+            if (f != f) continue;
+            float t = lv.t[i];
+            valid++;
+            sf += f; sf2 += f * f; sft += f * t; st += t; st2 += t * t;
+        }
+        if (valid < lv.n / 2) return 0;
+        double vf = sf2 - sf * sf / valid, vt = st2 - st * st / valid;
+        return vf > 0 && vt > 0 ? (sft - sf * st / valid) / Math.sqrt(vf * vt) : 0;
+    }
+
     /** Clip limit in robust standard deviations of the reference's template values (1.5, 2 and 2.5 tried on simulated series: 1.5 failed fewest frames). */
     static final double CLIP_SIGMAS = 1.5;
 

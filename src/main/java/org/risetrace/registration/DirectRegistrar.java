@@ -28,6 +28,10 @@ final class DirectRegistrar implements Registrar {
         Homography lastGoodRefToFrame;
         DirectRegistrar chain;
         String chainName;
+        /** The last frame on this thread was registered through the chain link. */
+        boolean lastChained;
+        /** Frames graded ok through the current link (it is renewed after MAX_LINK_USES). */
+        int linkUses;
     }
 
     /** Whether frames that no longer match the reference may be registered through the last ok frame. */
@@ -85,28 +89,35 @@ final class DirectRegistrar implements Registrar {
                 if (ref.level[l].n >= 16)
                     CoarseSearch.clipInPlace(ws.pyramid.bandPass[l], ws.pyramid.widths[l] * ws.pyramid.heights[l],
                             ref.level[l].t);
+            // once heating has moved the picture away from the reference, the link that served the last frame is
+            // tried first: on a heated series the direct starts then only cost time (a chain link's frame graded ok
+            // is kept as long as it keeps grading ok, instead of preparing a new reference per frame)
+            boolean chainTried = false;
+            if (mayChain && linkReusable(ws)) {
+                chainTried = true;
+                FrameRegistration c = viaChain(ws, frame);
+                if (c.status() == RegistrationStatus.OK) return rememberChained(ws, frame, c);
+                ws.lastChained = false;
+            }
             Grade best = null;
             int top = ref.levels - 1;
-            int fast = Math.min(2, top);
-            if (config.method().equals("auto")) {
-                Homography start = ws.previous != null ? ws.previous : Homography.identity();
-                ws.aligner.robustFromStart = true;
-                // full resolution only first: a stand drifts by a fraction of a pixel, and on the coarse levels a
-                // heated part's broad blob outweighs the board's fine texture and can pull the fit away
-                if (ws.previous != null) {
-                    // similarity only: a stand's drift needs no more, and a far-off start (hand-held) fails fast
-                    Grade g = alignAndGrade(ws, start, 0, 4);
-                    if (g != null && g.betterThan(best)) best = g;
-                    if (best != null && best.rank() == 2) { ws.aligner.robustFromStart = false; return finish(frame, ws, best); }
-                }
-                // from the coarser level only when the full-resolution try came close (weak): a start that failed
-                // outright is a new pose (hand-held), which the coarse search finds for less
-                if (ws.previous == null || best == null || best.rank() == 1) best = attempt(ws, start, fast, best);
-                ws.aligner.robustFromStart = false;
+            boolean auto = config.method().equals("auto"), search = !config.method().equals("features");
+            // which start first: the last estimate, unless it scores poorly on the top level and the coarse search
+            // finds the board elsewhere (a new hand-held pose: refining the old one there wasted a full-resolution
+            // alignment per frame). The same starts are tried either way, only the order differs.
+            List<CoarseSearch.Candidate> cands = null;
+            boolean previousFirst = auto;
+            if (auto && ws.previous != null && search
+                    && CoarseSearch.score(ref, ws.pyramid, ws.previous) < PREVIOUS_TRUSTED_SCORE) {
+                cands = CoarseSearch.search(ref, ws.pyramid, CANDIDATES);
+                previousFirst = cands.isEmpty() || agree(cands.get(0).refToFrame(), ws.previous, top);
+            }
+            if (previousFirst) {
+                best = fromPrevious(ws, best);
                 if (best != null && best.rank() == 2) return finish(frame, ws, best);
             }
-            if (!config.method().equals("features")) {
-                List<CoarseSearch.Candidate> cands = CoarseSearch.search(ref, ws.pyramid, CANDIDATES);
+            if (search) {
+                if (cands == null) cands = CoarseSearch.search(ref, ws.pyramid, CANDIDATES);
                 ws.aligner.robustFromStart = true;
                 for (CoarseSearch.Candidate c : cands) {
                     // refined from one level below the search's: its candidates are within a top-level pixel,
@@ -117,6 +128,11 @@ final class DirectRegistrar implements Registrar {
                 }
                 ws.aligner.robustFromStart = false;
             }
+            if (auto && !previousFirst) {
+                best = fromPrevious(ws, best);
+                if (best != null && best.rank() == 2) return finish(frame, ws, best);
+            }
+            int fast = Math.min(2, top);
             if (ref.features != null) {
                 if (ws.matcher == null) ws.matcher = new FeatureSet.Matcher(2.0);
                 int[] inl = new int[1];
@@ -124,11 +140,8 @@ final class DirectRegistrar implements Registrar {
                 if (f != null && plausibility(f) == null) best = attempt(ws, f, fast, best);
             }
             if (mayChain && (best == null || best.rank() < 2) && ws.lastGood != null) {
-                FrameRegistration chained = throughLastGood(ws, frame);
-                if (chained != null && chained.status() == RegistrationStatus.OK) {
-                    remember(ws, frame, chained.boardToFrame().compose(ref.boardToReference.inverse()));
-                    return chained;
-                }
+                FrameRegistration chained = throughLastGood(ws, frame, chainTried);
+                if (chained != null && chained.status() == RegistrationStatus.OK) return rememberChained(ws, frame, chained);
                 if (chained != null && chained.status() == RegistrationStatus.WEAK && (best == null || best.rank() == 0))
                     return chained;
             }
@@ -137,6 +150,45 @@ final class DirectRegistrar implements Registrar {
         } catch (RuntimeException e) {
             return failed(frame, "registration error: " + e);
         }
+    }
+
+    /**
+     * The start from this thread's last estimate (identity at first): a similarity refined at full resolution only
+     * (a stand drifts by a fraction of a pixel, and on the coarse levels a heated part's broad blob outweighs the
+     * board's fine texture and can pull the fit away); from the coarser level only when that came close (weak) or
+     * there is no last estimate: a start that failed outright is a new pose, which the coarse search finds for less.
+     */
+    private Grade fromPrevious(Workspace ws, Grade best) {
+        Homography start = ws.previous != null ? ws.previous : Homography.identity();
+        ws.aligner.robustFromStart = true;
+        try {
+            if (ws.previous != null) {
+                Grade g = alignAndGrade(ws, start, 0, 4);
+                if (g != null && g.betterThan(best)) best = g;
+                if (best != null && best.rank() == 2) return best;
+            }
+            if (ws.previous == null || best == null || best.rank() == 1)
+                best = attempt(ws, start, Math.min(2, ref.levels - 1), best);
+            return best;
+        } finally {
+            ws.aligner.robustFromStart = false;
+        }
+    }
+
+    /**
+     * Top-level correlation above which the last estimate is refined first without a coarse search (a stand's
+     * frames score 0.8-0.95 at their last estimate; a frame of a new hand-held pose scores under 0.3 there).
+     */
+    static final double PREVIOUS_TRUSTED_SCORE = 0.5;
+
+    /** True when two mappings put the reference's board corners within 1.5 top-level pixels of each other. */
+    private boolean agree(Homography a, Homography b, int top) {
+        double limit = 1.5 * Pyramid.scale(top);
+        for (double[] c : ref.referenceCornersPx) {
+            double[] p = a.apply(c[0], c[1]), q = b.apply(c[0], c[1]);
+            if (!(Math.hypot(p[0] - q[0], p[1] - q[1]) <= limit)) return false;
+        }
+        return true;
     }
 
     /**
@@ -173,26 +225,63 @@ final class DirectRegistrar implements Registrar {
 
     /**
      * Parts that heat change the picture until the reference no longer matches (texture from emissivity contrast
-     * fades and inverts as a surface passes the reflected temperature). Such a frame is registered to the last
-     * frame graded ok on this thread, which shares most of the heating, and the two mappings are composed; each
-     * link adds its own small error, so chains are only used when the direct mapping did not grade ok.
+     * fades and inverts as a surface passes the reflected temperature). Such a frame is registered to a frame
+     * graded ok earlier on this thread, which shares most of the heating, and the two mappings are composed; each
+     * link adds its own small error, so a link is only used when the direct mapping did not grade ok, and it is
+     * kept while it grades ok (fewer links, less error than re-linking every frame). When the current link does
+     * not grade ok (or was tried already), a new one is made from the freshest ok frame.
      */
-    private FrameRegistration throughLastGood(Workspace ws, Frame frame) {
-        String name = ws.lastGood.fileName();
-        if (ws.chain == null || !name.equals(ws.chainName)) {
-            Homography boardToLast = ws.lastGoodRefToFrame.compose(ref.boardToReference).normalized();
-            double[][] corners = Homographies.boardCorners(ref.board, boardToLast);
-            org.risetrace.board.Board b = new org.risetrace.board.Board(ref.board.name(), ref.board.sizeMm(),
-                    new org.risetrace.board.Outline(name, corners, null), ref.board.parts(), ref.board.ambient());
-            try {
-                ws.chain = new DirectRegistrar(ReferenceModel.prepareHeated(ws.lastGood, b, config.withMethod("search")),
-                        config.withMethod("auto"), false);
-            } catch (RuntimeException e) {
-                return null;
-            }
-            ws.chainName = name;
+    private FrameRegistration throughLastGood(Workspace ws, Frame frame, boolean currentTried) {
+        FrameRegistration r = null;
+        if (!currentTried && linkReusable(ws)) {
+            r = viaChain(ws, frame);
+            if (r.status() == RegistrationStatus.OK) return r;
         }
+        String name = ws.lastGood.fileName();
+        if (name.equals(ws.chainName) && r != null) return r;
+        Homography boardToLast = ws.lastGoodRefToFrame.compose(ref.boardToReference).normalized();
+        double[][] corners = Homographies.boardCorners(ref.board, boardToLast);
+        org.risetrace.board.Board b = new org.risetrace.board.Board(ref.board.name(), ref.board.sizeMm(),
+                new org.risetrace.board.Outline(name, corners, null), ref.board.parts(), ref.board.ambient());
+        try {
+            ws.chain = new DirectRegistrar(ReferenceModel.prepareHeated(ws.lastGood, b, config.withMethod("search")),
+                    config.withMethod("auto"), false);
+        } catch (RuntimeException e) {
+            return r;
+        }
+        ws.chainName = name;
+        ws.linkUses = 0;
+        // the new link starts from this thread's last estimate carried over to its reference
+        if (ws.previous != null)
+            ws.chain.workspace.get().previous = ws.previous.compose(ws.lastGoodRefToFrame.inverse()).normalized();
+        FrameRegistration fresh = viaChain(ws, frame);
+        return r == null || rank(fresh) >= rank(r) ? fresh : r;
+    }
+
+    /**
+     * A link is reused only while it served the last frame on this thread and at most MAX_LINK_USES frames: on
+     * simulated stand series an older link graded a frame ok that was 0.99 px off, where a link from the freshest
+     * ok frame graded it weak at 0.08 px.
+     */
+    static final int MAX_LINK_USES = 4;
+
+    private static boolean linkReusable(Workspace ws) {
+        return ws.chain != null && ws.lastChained && ws.linkUses < MAX_LINK_USES;
+    }
+
+    private FrameRegistration viaChain(Workspace ws, Frame frame) {
         return ws.chain.register(frame);
+    }
+
+    private static int rank(FrameRegistration r) {
+        return r.status() == RegistrationStatus.OK ? 2 : r.status() == RegistrationStatus.WEAK ? 1 : 0;
+    }
+
+    private FrameRegistration rememberChained(Workspace ws, Frame frame, FrameRegistration chained) {
+        remember(ws, frame, chained.boardToFrame().compose(ref.boardToReference.inverse()));
+        ws.lastChained = true;
+        ws.linkUses++;
+        return chained;
     }
 
     private void remember(Workspace ws, Frame frame, Homography refToFrame) {
@@ -206,7 +295,10 @@ final class DirectRegistrar implements Registrar {
             return new FrameRegistration(frame.fileName(), frame.tSeconds(), RegistrationStatus.FAILED, g.reason(),
                     null, null, g.inliers(), g.rmsPx(), g.similarity());
         ws.previous = g.refToFrame();
-        if (g.status() == RegistrationStatus.OK) remember(ws, frame, g.refToFrame());
+        if (g.status() == RegistrationStatus.OK) {
+            remember(ws, frame, g.refToFrame());
+            ws.lastChained = false;
+        }
         Homography boardToFrame = g.refToFrame().compose(ref.boardToReference).normalized();
         return new FrameRegistration(frame.fileName(), frame.tSeconds(), g.status(), g.reason(), boardToFrame,
                 Homographies.boardCorners(ref.board, boardToFrame), g.inliers(), g.rmsPx(), g.similarity());

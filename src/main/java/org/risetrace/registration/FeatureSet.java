@@ -35,6 +35,11 @@ final class FeatureSet {
         this.x = x; this.y = y; this.descriptions = d;
     }
 
+    static {
+        // frames are registered one per worker thread already; BoofCV's own worker threads would only contend
+        boofcv.concurrency.BoofConcurrency.USE_CONCURRENT = false;
+    }
+
     int size() { return x.length; }
 
     static DetectDescribePoint<GrayF32, TupleDesc_F64> detector() {

@@ -95,9 +95,10 @@ final class ReferenceModel {
         int stride = Math.max(1, (int) Math.ceil(Math.sqrt(area / MAX_SCORE_PIXELS)));
         float[] b0 = pyramid.bandPass[0];
         double sum = 0, sum2 = 0;
+        Quad outline = new Quad(referenceCornersPx, 0);
         for (int y = 1; y < height - 1; y += stride)
             for (int x = 1; x < width - 1; x += stride)
-                if (insideBy(referenceCornersPx, x, y, 0)) {
+                if (outline.contains(x, y)) {
                     sp.add(new float[]{x, y, b0[y * width + x]});
                     sum += b0[y * width + x];
                     sum2 += b0[y * width + x] * b0[y * width + x];
@@ -140,9 +141,10 @@ final class ReferenceModel {
         float[] gm = new float[cap];
         int[] idx = new int[cap];
         int n = 0;
+        Quad quad = new Quad(c, margin);
         for (int y = 1; y < h - 1; y++)
             for (int x = 1; x < w - 1; x++) {
-                if (!insideBy(c, x, y, margin)) continue;
+                if (!quad.contains(x, y)) continue;
                 int i = y * w + x;
                 float gx = 0.5f * (img[i + 1] - img[i - 1]), gy = 0.5f * (img[i + w] - img[i - w]);
                 float g = gx * gx + gy * gy;
@@ -151,10 +153,9 @@ final class ReferenceModel {
                 idx[n++] = i;
             }
         // keep the stronger 60 % (flat pixels only add noise to the normal equations), at most MAX_TEMPLATE_PIXELS
-        float[] sorted = Arrays.copyOf(gm, n);
-        Arrays.sort(sorted);
         int keep = Math.min(MAX_TEMPLATE_PIXELS, Math.max(Math.min(n, 16), (int) (n * 0.6)));
-        float thr = n == 0 ? 0 : sorted[Math.max(0, n - keep)];
+        // the keep-th largest by selection, not a sort (a chain link prepares a reference during the series)
+        float thr = n == 0 ? 0 : DirectAligner.select(Arrays.copyOf(gm, n), n, Math.max(0, n - keep));
         int m = 0;
         for (int k = 0; k < n; k++) if (gm[k] >= thr && m < keep) m++;
         float[] xs = new float[m], ys = new float[m], ts = new float[m], sd = new float[8 * m];
@@ -233,13 +234,29 @@ final class ReferenceModel {
 
     /** True when (x, y) lies inside the convex quad (positive orientation, y down) or within margin of it. */
     static boolean insideBy(double[][] c, double x, double y, double margin) {
-        for (int i = 0; i < 4; i++) {
-            double[] a = c[i], b = c[(i + 1) % 4];
-            double ex = b[0] - a[0], ey = b[1] - a[1];
-            double cross = ex * (y - a[1]) - ey * (x - a[0]);
-            if (cross < -margin * Math.hypot(ex, ey)) return false;
+        return new Quad(c, margin).contains(x, y);
+    }
+
+    /** A convex quad with its edges' unit normals prepared once, for testing every pixel of a level. */
+    static final class Quad {
+        private final double[] ax = new double[4], ay = new double[4], nx = new double[4], ny = new double[4];
+        private final double margin;
+
+        Quad(double[][] c, double margin) {
+            this.margin = margin;
+            for (int i = 0; i < 4; i++) {
+                double[] a = c[i], b = c[(i + 1) % 4];
+                double ex = b[0] - a[0], ey = b[1] - a[1], len = Math.hypot(ex, ey);
+                ax[i] = a[0]; ay[i] = a[1];
+                nx[i] = len > 0 ? ex / len : 0; ny[i] = len > 0 ? ey / len : 0;
+            }
         }
-        return true;
+
+        boolean contains(double x, double y) {
+            for (int i = 0; i < 4; i++)
+                if (nx[i] * (y - ay[i]) - ny[i] * (x - ax[i]) < -margin) return false;
+            return true;
+        }
     }
 
     static double polygonArea(double[][] c) {

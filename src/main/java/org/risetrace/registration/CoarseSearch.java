@@ -39,6 +39,8 @@ final class CoarseSearch {
         int[] at = new int[n];
         for (int i = 0; i < n; i++) at[i] = ((int) lv.y[i] - y0) * ww + ((int) lv.x[i] - x0);
         float[] warped = new float[ww * wh];
+        double allT = 0, allT2 = 0;
+        for (int i = 0; i < n; i++) { allT += lv.t[i]; allT2 += lv.t[i] * lv.t[i]; }
         double[] top = new double[keep * 4];
         java.util.Arrays.fill(top, Double.NEGATIVE_INFINITY);
         for (double rot : ROTATIONS_DEG)
@@ -57,16 +59,23 @@ final class CoarseSearch {
                 for (int ty = -range; ty <= range; ty++)
                     for (int tx = -range; tx <= range; tx++) {
                         int off = (ty + range) * ww + tx + range;
-                        double sf = 0, sf2 = 0, sft = 0, st = 0, st2 = 0;
+                        double sf = 0, sf2 = 0, sft = 0, st = allT, st2 = allT2;
                         int valid = 0;
                         for (int i = 0; i < n; i++) {
                             float f = warped[at[i] + off];
                             if (f != f) continue;
-                            float t = lv.t[i];
                             valid++;
-                            sf += f; sf2 += f * f; sft += f * t; st += t; st2 += t * t;
+                            sf += f; sf2 += f * f; sft += f * lv.t[i];
                         }
                         if (valid < n / 2) continue;
+                        if (valid < n) { // part of the template fell outside the frame: its own sums over the rest
+                            st = 0; st2 = 0;
+                            for (int i = 0; i < n; i++) {
+                                if (warped[at[i] + off] != warped[at[i] + off]) continue;
+                                float t = lv.t[i];
+                                st += t; st2 += t * t;
+                            }
+                        }
                         double cov = sft - sf * st / valid;
                         double vf = sf2 - sf * sf / valid, vt = st2 - st * st / valid;
                         if (vf <= 0 || vt <= 0) continue;

@@ -26,8 +26,16 @@ final class Pyramid {
     /** Builds the pyramid; returns the mean of the finite input pixels (NaN when there are none). */
     double build(float[] celsius, int w, int h, int nLevels) {
         if (levels != nLevels || widths.length == 0 || widths[0] != w || heights[0] != h) allocate(w, h, nLevels);
-        double mean = Filters.fillInvalid(celsius, filled);
-        Filters.gaussian1(filled, smooth[0], t1, w, h);
+        double sum = 0;
+        int finite = 0;
+        for (float v : celsius) if (Float.isFinite(v)) { sum += v; finite++; }
+        double mean = finite == 0 ? Double.NaN : sum / finite;
+        float[] input = celsius;
+        if (finite < celsius.length) { // pixels without a reading take the mean (a copy only then)
+            Filters.fillInvalid(celsius, filled);
+            input = filled;
+        }
+        Filters.gaussian1(input, smooth[0], t1, w, h);
         for (int l = 0; l < levels; l++) {
             if (l > 0) Filters.halve(smooth[l - 1], widths[l - 1], heights[l - 1], smooth[l], widths[l], heights[l]);
             Filters.highPass(smooth[l], bandPass[l], t1, t2, widths[l], heights[l], HIGH_PASS_RADIUS);

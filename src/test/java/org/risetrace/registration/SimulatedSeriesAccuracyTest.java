@@ -44,12 +44,18 @@ class SimulatedSeriesAccuracyTest {
     }
 
     private Outcome run(Scenario.Motion motion, long seedBase) {
+        return run(motion, seedBase, SERIES, 0, 0);
+    }
+
+    /** series simulated series; width and height 0 keep the scenarios' own frame size. */
+    private Outcome run(Scenario.Motion motion, long seedBase, int seriesCount, int width, int height) {
         int n = 0, ok = 0, weak = 0, failed = 0;
         double sum = 0, max = 0;
-        for (int s = 0; s < SERIES; s++) {
+        for (int s = 0; s < seriesCount; s++) {
             long seed = seedBase + s;
             Scenario sc = (s % 2 == 0 ? Scenarios.small(1.5 + 0.1 * s).withSeed(seed) : Scenarios.random(seed, 10, 1.5))
                     .withMotion(motion).withFrames(FRAMES, 1.0, 1.0);
+            if (width > 0) sc = sc.withSize(width, height);
             SimulationOutput out = Simulator.run(sc, dir.resolve("series" + seed));
             Truth truth = out.truth();
             Board clicked = BoardFile.read(out.boardFile(), null);
@@ -151,5 +157,23 @@ class SimulatedSeriesAccuracyTest {
         assertTrue(o.failed() <= 0.01 * o.frames(), "issue #4: <= 1 % of hand-held frames failed; " + o);
         // measured 124 of 140 ok (2 December 2026); a drop below 80 % is a regression
         assertTrue(o.ok() >= 0.8 * o.frames(), o.toString());
+    }
+
+    /**
+     * The benchmark's frame size, 640 x 512 (four levels of pyramid above full resolution, template caps active):
+     * the same limits on fewer series (simulation at this size is slow). Measured 2 December 2026: stand 35 ok /
+     * 7 weak / 0 failed, mean 0.013 px; hand-held the same counts, 0.012 px (the weak frames are one board with
+     * only 2-3 textured check patches).
+     */
+    @Test
+    void largeFramesMeetTheSameLimits() {
+        for (Scenario.Motion motion : new Scenario.Motion[]{Scenario.Motion.stand(0.15), Scenario.Motion.handheld(5, 0.10, 0.15)}) {
+            Outcome o = run(motion, 7000, 6, 640, 512);
+            System.out.println("simulated 640x512 " + motion.kind() + ": " + o);
+            assertTrue(o.meanOkErrorPx() <= 0.15, "issue #4 limits at 640 x 512; " + o);
+            assertTrue(o.maxOkErrorPx() <= 1.0, "issue #4: no ok frame above 1 px; " + o);
+            assertTrue(o.failed() <= 0.01 * o.frames(), "issue #4: <= 1 % failed; " + o);
+            assertTrue(o.ok() >= 0.75 * o.frames(), o.toString());
+        }
     }
 }

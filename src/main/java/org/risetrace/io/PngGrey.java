@@ -10,8 +10,8 @@ import java.util.zip.Inflater;
 /**
  * A direct decoder for the commonest frame: non-interlaced 8- or 16-bit grey PNG without palette or transparency
  * (ISO/IEC 15948). The JDK plug-in spends most of its time in per-pixel Raster calls; here the image data is
- * inflated one scanline at a time and unfiltered in plain loops over two reused row buffers. Any other file gives
- * null and goes through ImageIO, which stays the reference for everything this class does not handle.
+ * inflated into one buffer and unfiltered in place in plain loops over it. Any other file gives null and goes
+ * through ImageIO, which stays the reference for everything this class does not handle.
  */
 final class PngGrey {
     private static final int SIGNATURE_LENGTH = 8;
@@ -31,7 +31,7 @@ final class PngGrey {
         ImageIoDecoding.checkPixels(file, "PNG", h.width, h.height, ctx.maxPixels());
         if (h.idat.length == 0) throw new InputRejected(file, "damaged PNG data: no IDAT chunk (image data)");
         int w = (int) h.width, rows = (int) h.height;
-        if ((long) w * rows > Integer.MAX_VALUE - 8) return null; // no Java array holds it; ImageIO says so
+        if (rows * (1 + w * (h.depth / 8L)) > Integer.MAX_VALUE - 8) return null; // too big for one Java array
         return h.depth == 16
                 ? RawSamples.counts(w, rows, 16, sixteen(file, bytes, h), PngReader.detail(bytes))
                 : RawSamples.grey(w, rows, 255, eight(file, bytes, h), PngReader.detail(bytes));
@@ -39,8 +39,7 @@ final class PngGrey {
 
     /**
      * What the chunks say, when they describe the simple case. {@code idat} holds offset and length of each IDAT
-     * chunk's data, in file order (sections 10 and 11.2.4: the zlib stream is their
-     * concatenation).
+     * chunk's data, in file order (sections 10 and 11.2.4: the zlib stream is their concatenation).
      */
     private record Header(long width, long height, int depth, int[] idat) {
     }
@@ -88,126 +87,109 @@ final class PngGrey {
     }
 
     private static byte[] eight(Path file, byte[] b, Header h) {
-        int w = (int) h.width;
-        byte[] out = new byte[w * (int) h.height];
-        try (Scanlines s = new Scanlines(file, b, h, 1)) {
-            for (int y = 0; y < h.height; y++) System.arraycopy(s.next(y), 1, out, y * w, w);
-        }
+        int w = (int) h.width, rows = (int) h.height;
+        byte[] d = scanlines(file, b, h, 1);
+        byte[] out = new byte[w * rows];
+        for (int y = 0; y < rows; y++) System.arraycopy(d, y * (1 + w) + 1, out, y * w, w);
         return out;
     }
 
     private static short[] sixteen(Path file, byte[] b, Header h) {
-        int w = (int) h.width;
-        short[] out = new short[w * (int) h.height];
-        try (Scanlines s = new Scanlines(file, b, h, 2)) {
-            for (int y = 0; y < h.height; y++) {
-                byte[] row = s.next(y);
-                int o = y * w;
-                // samples are stored most significant byte first (section 7.1)
-                for (int x = 0, i = 1; x < w; x++, i += 2)
-                    out[o + x] = (short) (((row[i] & 0xFF) << 8) | (row[i + 1] & 0xFF));
-            }
+        int w = (int) h.width, rows = (int) h.height;
+        byte[] d = scanlines(file, b, h, 2);
+        short[] out = new short[w * rows];
+        for (int y = 0; y < rows; y++) {
+            // samples are stored most significant byte first (section 7.1)
+            for (int x = 0, i = y * (1 + 2 * w) + 1, o = y * w; x < w; x++, i += 2)
+                out[o + x] = (short) (((d[i] & 0xFF) << 8) | (d[i + 1] & 0xFF));
         }
         return out;
     }
 
     /**
-     * Inflates and unfilters one scanline at a time. Each buffer holds the filter type byte at index 0 and the
-     * row's bytes after it, so a row and the one above line up index for index. Data after the last row is
-     * ignored, as the JDK plug-in does.
+     * The image data inflated in one piece, then unfiltered in place row by row: each scanline is its filter type
+     * byte and the row's bytes, and the row above is still there, already unfiltered, for Up, Average and Paeth.
+     * One whole-image inflate call is markedly faster than one per row (zlib's fast path needs room to write).
      */
-    private static final class Scanlines implements AutoCloseable {
-        private final Path file;
-        private final byte[] b;
-        private final int[] idat;
-        private final int bpp;
-        private final long expected;
-        private final Inflater inflater = new Inflater();
-        private byte[] row, prior;
-        private int nextChunk;
-
-        Scanlines(Path file, byte[] b, Header h, int bytesPerPixel) {
-            this.file = file;
-            this.b = b;
-            this.idat = h.idat;
-            this.bpp = bytesPerPixel;
-            int length = 1 + (int) h.width * bytesPerPixel;
-            this.expected = h.height * length;
-            this.row = new byte[length];
-            this.prior = new byte[length]; // zeros: the row above the first one (section 9.2)
+    private static byte[] scanlines(Path file, byte[] b, Header h, int bytesPerPixel) {
+        int length = 1 + (int) h.width * bytesPerPixel;
+        byte[] d = new byte[length * (int) h.height];
+        inflate(file, b, h.idat, d);
+        byte[] zeros = new byte[length]; // the row above the first one (section 9.2)
+        for (int y = 0, o = 0; y < h.height; y++, o += length) {
+            if (y == 0) unfilter(file, d, o, zeros, 0, length, bytesPerPixel, y);
+            else unfilter(file, d, o, d, o - length, length, bytesPerPixel, y);
         }
+        return d;
+    }
 
-        /** Row y, unfiltered, samples from index 1. Valid until the next call. */
-        byte[] next(int y) {
-            byte[] done = prior;
-            prior = row;
-            row = done;
-            inflate(y);
-            unfilter(y);
-            return row;
-        }
-
-        @Override
-        public void close() {
+    /**
+     * Fills {@code out} from the zlib stream in the IDAT chunks (section 10). Data after the image is ignored,
+     * as the JDK plug-in does.
+     */
+    private static void inflate(Path file, byte[] b, int[] idat, byte[] out) {
+        Inflater inflater = new Inflater();
+        int off = 0, next = 0;
+        try {
+            while (off < out.length) {
+                int n = inflater.inflate(out, off, out.length - off);
+                off += n;
+                if (n > 0) continue;
+                if (inflater.needsInput() && next < idat.length) {
+                    inflater.setInput(b, idat[next], idat[next + 1]);
+                    next += 2;
+                } else if (inflater.needsDictionary()) {
+                    throw new InputRejected(file, "damaged PNG data: the zlib stream asks for a preset dictionary");
+                } else {
+                    // the stream ended, or the IDAT chunks ran out, before the last row
+                    throw new InputRejected(file,
+                            "truncated PNG image data: expected " + out.length + " bytes, got " + off);
+                }
+            }
+        } catch (DataFormatException e) {
+            throw new InputRejected(file, "damaged PNG data: " + (e.getMessage() != null ? e.getMessage()
+                    : "invalid deflate stream") + " (after " + off + " bytes)", null, e);
+        } finally {
             inflater.end(); // frees zlib's native memory now rather than at garbage collection
         }
+    }
 
-        private void inflate(int y) {
-            int off = 0;
-            try {
-                while (off < row.length) {
-                    int n = inflater.inflate(row, off, row.length - off);
-                    off += n;
-                    if (n > 0) continue;
-                    if (inflater.needsInput() && nextChunk < idat.length) {
-                        inflater.setInput(b, idat[nextChunk], idat[nextChunk + 1]);
-                        nextChunk += 2;
-                    } else if (inflater.needsDictionary()) {
-                        throw new InputRejected(file, "damaged PNG data: the zlib stream asks for a preset dictionary");
-                    } else {
-                        // the stream ended, or the IDAT chunks ran out, before the last row
-                        throw new InputRejected(file, "truncated PNG image data: expected " + expected
-                                + " bytes, got " + ((long) y * row.length + off));
-                    }
-                }
-            } catch (DataFormatException e) {
-                throw new InputRejected(file, "damaged PNG data: " + (e.getMessage() != null ? e.getMessage()
-                        : "invalid deflate stream") + " (row " + y + ")", null, e);
+    /**
+     * Reverses the filter of the scanline at {@code d[o]} (section 9.2), with the unfiltered row above at
+     * {@code up[u]}; both start with the filter type byte. a, b and c are the bytes left, above and above-left.
+     */
+    private static void unfilter(Path file, byte[] d, int o, byte[] up, int u, int length, int bpp, int y) {
+        int end = o + length, k = bpp, du = u - o;
+        switch (d[o]) {
+            case 0 -> {
             }
-        }
-
-        /** Reverses the row's filter (section 9.2); a, b and c are the bytes left, above and above-left. */
-        private void unfilter(int y) {
-            byte[] r = row, up = prior;
-            int n = r.length, k = bpp;
-            switch (r[0]) {
-                case 0 -> {
-                }
-                case 1 -> {
-                    for (int i = 1 + k; i < n; i++) r[i] += r[i - k];
-                }
-                case 2 -> {
-                    for (int i = 1; i < n; i++) r[i] += up[i];
-                }
-                case 3 -> {
-                    for (int i = 1; i <= k; i++) r[i] += (up[i] & 0xFF) >>> 1;
-                    for (int i = 1 + k; i < n; i++) r[i] += ((r[i - k] & 0xFF) + (up[i] & 0xFF)) >>> 1;
-                }
-                case 4 -> {
-                    for (int i = 1; i <= k; i++) r[i] += up[i]; // a = c = 0: the predictor is b
-                    for (int i = 1 + k; i < n; i++) r[i] += paeth(r[i - k] & 0xFF, up[i] & 0xFF, up[i - k] & 0xFF);
-                }
-                default -> throw new InputRejected(file,
-                        "damaged PNG data: filter type " + (r[0] & 0xFF) + " on row " + y);
+            case 1 -> {
+                for (int i = o + 1 + k; i < end; i++) d[i] += d[i - k];
             }
+            case 2 -> {
+                for (int i = o + 1; i < end; i++) d[i] += up[i + du];
+            }
+            case 3 -> {
+                for (int i = o + 1; i <= o + k; i++) d[i] += (up[i + du] & 0xFF) >>> 1;
+                for (int i = o + 1 + k; i < end; i++) d[i] += ((d[i - k] & 0xFF) + (up[i + du] & 0xFF)) >>> 1;
+            }
+            case 4 -> {
+                for (int i = o + 1; i <= o + k; i++) d[i] += up[i + du]; // a = c = 0: the predictor is b
+                for (int i = o + 1 + k; i < end; i++)
+                    d[i] += paeth(d[i - k] & 0xFF, up[i + du] & 0xFF, up[i + du - k] & 0xFF);
+            }
+            default -> throw new InputRejected(file, "damaged PNG data: filter type " + (d[o] & 0xFF) + " on row " + y);
         }
     }
 
     /** The Paeth predictor (section 9.2): whichever of a, b, c is closest to a + b - c, ties to a, then b. */
     static int paeth(int a, int b, int c) {
         int pa = Math.abs(b - c), pb = Math.abs(a - c), pc = Math.abs(a + b - 2 * c);
-        if (pa <= pb && pa <= pc) return a;
-        return pb <= pc ? b : c;
+        // chosen by sign masks, not branches: on noisy rows the branches mispredict about half the time
+        int notA = ((pb - pa) | (pc - pa)) >> 31; // all ones unless pa <= pb and pa <= pc
+        int notB = (pc - pb) >> 31; // all ones unless pb <= pc
+        int bOrC = b ^ ((b ^ c) & notB);
+        return a ^ ((a ^ bOrC) & notA);
     }
 
     private static int readInt(byte[] b, int p) {

@@ -6,10 +6,22 @@ import java.nio.file.Path;
 
 /**
  * PNG (ISO/IEC 15948): 16-bit grey counts for a linear profile, 8-bit (or fewer bits) grey for a span profile.
- * Decoded by the JDK's PNG plug-in from the bytes already read.
+ * Plain 8- and 16-bit grey files are decoded by {@link PngGrey}; every other kind by the JDK's PNG plug-in, from
+ * the bytes already read.
  */
 public final class PngReader implements FrameReader {
     private static final byte[] SIGNATURE = {(byte) 0x89, 'P', 'N', 'G', '\r', '\n', 0x1A, '\n'};
+
+    private final boolean directGrey;
+
+    public PngReader() {
+        this(true);
+    }
+
+    /** {@code directGrey} false sends every file through the JDK plug-in: the reference for tests and benchmarks. */
+    PngReader(boolean directGrey) {
+        this.directGrey = directGrey;
+    }
 
     @Override
     public String container() {
@@ -24,6 +36,10 @@ public final class PngReader implements FrameReader {
     @Override
     public RawSamples decode(Path file, byte[] bytes, ReadContext context) {
         checkChunks(file, bytes);
+        if (directGrey) {
+            RawSamples s = PngGrey.decode(file, bytes, context);
+            if (s != null) return s;
+        }
         ImageIoDecoding.Decoded d = ImageIoDecoding.decode(file, bytes, "png", "PNG", context, false);
         return ImageIoDecoding.samples(file, d.image(), 0, detail(bytes));
     }
@@ -54,7 +70,7 @@ public final class PngReader implements FrameReader {
     }
 
     /** Bit depth, colour type and interlacing from the IHDR chunk (bytes 24, 25, 28 of the file). */
-    private static String detail(byte[] b) {
+    static String detail(byte[] b) {
         if (b.length < 29) return "";
         int depth = b[24], colour = b[25], interlace = b[28];
         String type = switch (colour) {

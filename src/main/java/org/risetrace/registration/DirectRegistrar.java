@@ -133,7 +133,9 @@ final class DirectRegistrar implements Registrar {
                 if (best != null && best.rank() == 2) return finish(frame, ws, best);
             }
             int fast = Math.min(2, top);
-            if (ref.features != null) {
+            // features only when no start came close: when one graded weak the frame is where it was looked for
+            // and has changed (heating), which a feature start does not mend (it converged to the same mapping)
+            if (ref.features != null && (best == null || best.rank() == 0)) {
                 if (ws.matcher == null) ws.matcher = new FeatureSet.Matcher(2.0);
                 int[] inl = new int[1];
                 Homography f = ws.matcher.match(ref.features, ws.pyramid.bandPass[0], ref.width, ref.height, inl);

@@ -19,7 +19,9 @@ final class DirectRegistrar implements Registrar {
     private final ThreadLocal<Workspace> workspace;
 
     private static final class Workspace {
-        final Pyramid pyramid = new Pyramid();
+        Pyramid pyramid = new Pyramid();
+        /** The frame's top level before clipping (each reference clips it to its own range). */
+        float[] topUnclipped;
         final DirectAligner aligner = new DirectAligner();
         FeatureSet.Matcher matcher;
         Homography previous;
@@ -67,6 +69,14 @@ final class DirectRegistrar implements Registrar {
 
     @Override
     public FrameRegistration register(Frame frame) {
+        return register(frame, null);
+    }
+
+    /**
+     * @param shared the calling registrar's workspace when this is its chain link (same thread, same frame):
+     *               the frame's pyramid is taken from it instead of built again
+     */
+    private FrameRegistration register(Frame frame, Workspace shared) {
         String name = frame.fileName();
         try {
             Board board = ref.board;
@@ -79,16 +89,19 @@ final class DirectRegistrar implements Registrar {
                 return failed(frame, "frame is " + frame.width() + "x" + frame.height() + ", the reference frame "
                         + ref.width + "x" + ref.height);
             Workspace ws = workspace.get();
-            double mean = ws.pyramid.build(frame.celsius(), frame.width(), frame.height(), ref.levels);
-            if (Double.isNaN(mean)) return failed(frame, "frame holds no readings");
-            double texture = spread(ws.pyramid.bandPass[0]);
-            if (texture < 0.05 * ref.referenceBandStd)
-                return failed(frame, "frame is uniform: no texture to register");
-            // the top level only (the coarse search): clipping the lower levels too gave no gain
-            for (int l = Math.max(1, ref.levels - 1); l < ref.levels; l++)
-                if (ref.level[l].n >= 16)
-                    CoarseSearch.clipInPlace(ws.pyramid.bandPass[l], ws.pyramid.widths[l] * ws.pyramid.heights[l],
-                            ref.level[l].t);
+            if (shared == null) {
+                double mean = ws.pyramid.build(frame.celsius(), frame.width(), frame.height(), ref.levels);
+                if (Double.isNaN(mean)) return failed(frame, "frame holds no readings");
+                double texture = spread(ws.pyramid.bandPass[0]);
+                if (texture < 0.05 * ref.referenceBandStd)
+                    return failed(frame, "frame is uniform: no texture to register");
+                int top = ref.levels - 1;
+                ws.topUnclipped = java.util.Arrays.copyOf(ws.pyramid.bandPass[top], ws.pyramid.bandPass[top].length);
+            } else { // a chain link: the frame's pyramid as its main registrar built it
+                ws.pyramid = shared.pyramid;
+                ws.topUnclipped = shared.topUnclipped;
+            }
+            clipTop(ws);
             // once heating has moved the picture away from the reference, the link that served the last frame is
             // tried first: on a heated series the direct starts then only cost time (a chain link's frame graded ok
             // is kept as long as it keeps grading ok, instead of preparing a new reference per frame)
@@ -98,6 +111,7 @@ final class DirectRegistrar implements Registrar {
                 FrameRegistration c = viaChain(ws, frame);
                 if (c.status() == RegistrationStatus.OK) return rememberChained(ws, frame, c);
                 ws.lastChained = false;
+                clipTop(ws); // the link clipped the shared top level to its own reference's range
             }
             Grade best = null;
             int top = ref.levels - 1;
@@ -272,7 +286,19 @@ final class DirectRegistrar implements Registrar {
     }
 
     private FrameRegistration viaChain(Workspace ws, Frame frame) {
-        return ws.chain.register(frame);
+        return ws.chain.register(frame, ws);
+    }
+
+    /**
+     * The top level clipped to this reference's range (for the coarse search), from the unclipped copy: the top
+     * level only, clipping the lower levels too gave no gain.
+     */
+    private void clipTop(Workspace ws) {
+        int top = ref.levels - 1;
+        float[] level = ws.pyramid.bandPass[top];
+        System.arraycopy(ws.topUnclipped, 0, level, 0, level.length);
+        if (ref.level[top].n >= 16 && top >= 1)
+            CoarseSearch.clipInPlace(level, ws.pyramid.widths[top] * ws.pyramid.heights[top], ref.level[top].t);
     }
 
     private static int rank(FrameRegistration r) {

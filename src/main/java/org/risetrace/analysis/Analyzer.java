@@ -44,18 +44,24 @@ public final class Analyzer {
                                Progress progress) {
         int n = frames.size();
         threads = Math.max(1, threads);
-        ExecutorService pool = Executors.newFixedThreadPool(threads, r -> {
-            Thread t = new Thread(r, "risetrace-frame");
-            t.setDaemon(true);
-            return t;
-        });
+        // one single-thread executor per worker and frame i always on worker i mod threads: each worker's
+        // registrar state (last estimate, chain link) then sees the same frames in the same order on every run,
+        // so a report is reproducible to the last digit (with a shared pool the assignment followed the timing and
+        // rates differed in the fourth digit between runs)
+        ExecutorService[] pools = new ExecutorService[threads];
+        for (int k = 0; k < threads; k++)
+            pools[k] = Executors.newSingleThreadExecutor(r -> {
+                Thread t = new Thread(r, "risetrace-frame");
+                t.setDaemon(true);
+                return t;
+            });
         ThreadLocal<Worker> workers = ThreadLocal.withInitial(() -> new Worker(board, mappers.get(), ambient.get()));
         ArrayDeque<Future<FrameSample>> inFlight = new ArrayDeque<>();
         int window = 2 * threads + 1, done = 0;
         try {
             for (int i = 0; i < n; i++) {
                 final int index = i;
-                inFlight.add(pool.submit(() -> workers.get().process(frames, index)));
+                inFlight.add(pools[index % pools.length].submit(() -> workers.get().process(frames, index)));
                 while (inFlight.size() > window) {
                     analysis.add(take(inFlight.poll()));
                     progress.update(++done, n);
@@ -66,7 +72,7 @@ public final class Analyzer {
                 progress.update(++done, n);
             }
         } finally {
-            pool.shutdownNow();
+            for (ExecutorService pool : pools) pool.shutdownNow();
         }
         return analysis.finish();
     }

@@ -1,0 +1,112 @@
+package org.risetrace.analysis;
+
+import com.fasterxml.jackson.databind.ObjectMapper;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+import org.risetrace.sim.Scenario;
+import org.risetrace.sim.Scenarios;
+import org.risetrace.sim.SimulationOutput;
+import org.risetrace.sim.Simulator;
+
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Map;
+import java.util.Random;
+import java.util.concurrent.ConcurrentHashMap;
+import org.risetrace.board.Board;
+import org.risetrace.board.Outline;
+import org.risetrace.frame.Decoding;
+import org.risetrace.frame.Frame;
+import org.risetrace.registration.BoardRaster;
+import org.risetrace.registration.FrameRegistration;
+import org.risetrace.registration.Homography;
+import org.risetrace.registration.RegistrationStatus;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+
+/**
+ * The same series analysed several times on two worker threads gives the same numbers to the last digit: a
+ * report kept as evidence must be reproducible from its source frames (common practice). Hand-held and heated,
+ * so the registrars' per-thread state (last estimate, chain links) is exercised; with frames handed to whichever
+ * worker was free, rates differed in the fourth digit between runs.
+ */
+class ReproducibilityTest {
+    @TempDir
+    Path dir;
+
+    @Test
+    void repeatedAnalysesOnTwoThreadsAgreeExactly() throws Exception {
+        SimulationOutput out = Simulator.run(Scenarios.small(1.5).withSeed(41).withFrames(30, 0.5, 2.0)
+                .withMotion(Scenario.Motion.handheld(5, 0.10, 0.15)), dir.resolve("s"));
+        ObjectMapper json = new ObjectMapper();
+        String first = null;
+        for (int run = 0; run < 3; run++) {
+            Analysis a = SimulatedSeriesTest.analyze(out.directory());
+            AnalysisResult r = a.result();
+            String numbers = json.writeValueAsString(new Object[]{r.verdict(), r.parts(), r.hotspots(), r.frames()});
+            if (first == null) first = numbers;
+            else assertEquals(first, numbers, "run " + (run + 1) + " differs from run 1");
+        }
+    }
+
+    /**
+     * The property behind it, under timing that varies from run to run (random decode delays): each worker, with
+     * its own registrar state, is handed frames i = k mod 2 in increasing order, whatever finishes first.
+     */
+    @Test
+    void everyWorkerSeesTheSameFramesInOrderWhateverTheTiming() {
+        int n = 40, threads = 2;
+        Board board = new Board("b", new double[]{10, 10},
+                new Outline("f0.png", new double[][]{{0, 0}, {9, 0}, {9, 9}, {0, 9}}, null), List.of(), null);
+        for (long seed = 1; seed <= 3; seed++) {
+            Random jitter = new Random(seed);
+            long[] delayUs = new long[n];
+            for (int i = 0; i < n; i++) delayUs[i] = jitter.nextInt(3000);
+            Map<Thread, List<Integer>> seen = new ConcurrentHashMap<>();
+            FrameSource source = new FrameSource() {
+                @Override public int size() { return n; }
+                @Override public String fileName(int i) { return "f" + i + ".png"; }
+                @Override public double tSeconds(int i) { return i; }
+                @Override public Frame read(int i) {
+                    try {
+                        Thread.sleep(delayUs[i] / 1000, (int) (delayUs[i] % 1000) * 1000);
+                    } catch (InterruptedException e) {
+                        Thread.currentThread().interrupt();
+                    }
+                    return new Frame(10, 10, new float[100], i, null, Path.of(fileName(i)), "00",
+                            new Decoding("test", 32, "f32-celsius", ""));
+                }
+            };
+            BoardMapper recording = new BoardMapper() {
+                @Override public FrameRegistration register(Frame frame) {
+                    int i = (int) frame.tSeconds();
+                    seen.computeIfAbsent(Thread.currentThread(), t -> new ArrayList<>()).add(i);
+                    return new FrameRegistration(frame.fileName(), i, RegistrationStatus.FAILED, "test", null, null,
+                            0, Double.NaN, Double.NaN);
+                }
+
+                @Override public BoardRaster rectify(Frame frame, Homography boardToFrame) {
+                    throw new AssertionError("no usable frame");
+                }
+            };
+            double[] times = new double[n];
+            for (int i = 0; i < n; i++) times[i] = i;
+            AnalysisOptions o = AnalysisOptions.defaults();
+            SeriesAnalysis sa = new SeriesAnalysis(board, o, BaselinePlan.plan(times, null, o.baselineFrames(),
+                    o.lastFrames()), EmissivityModel.none(), new SeriesAnalysis.Context("mem", "board.json",
+                    "f32-celsius", null, null, "test", "none"));
+            try {
+                Analyzer.run(source, board, () -> recording, () -> null, sa, threads, Analyzer.Progress.NONE);
+            } catch (RuntimeException expected) {
+                // every frame failed registration on purpose: only the assignment matters here
+            }
+            assertEquals(threads, seen.size(), "seed " + seed + ": " + seen);
+            for (List<Integer> frames : seen.values()) {
+                int first = frames.get(0);
+                for (int k = 0; k < frames.size(); k++)
+                    assertEquals(first + threads * k, frames.get(k), "seed " + seed + ": " + seen);
+            }
+        }
+    }
+}

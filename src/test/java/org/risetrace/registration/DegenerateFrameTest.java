@@ -72,6 +72,10 @@ class DegenerateFrameTest {
 
     @Test
     void frameSoHotNothingMatchesFails() {
+        assertFailed(registrar.register(new Frame(W, H, drowned(), 1, null, Path.of("hot.png"), "", reference.decoding())));
+    }
+
+    private float[] drowned() {
         float[] hot = scene.render(W, H, Homographies.boardToFrame(board, rc), 0, 0.05, 3, "h.png").celsius().clone();
         Random q = new Random(77);
         // forty overlapping hot spots of 10..40 K: the board's own pattern drowns
@@ -82,7 +86,7 @@ class DegenerateFrameTest {
                 for (int x = 0; x < W; x++)
                     hot[y * W + x] += (float) (a * Math.exp(-((x - cx) * (x - cx) + (y - cy) * (y - cy)) / (2 * sg * sg)));
         }
-        assertFailed(registrar.register(new Frame(W, H, hot, 1, null, Path.of("hot.png"), "", reference.decoding())));
+        return hot;
     }
 
     @Test
@@ -91,6 +95,34 @@ class DegenerateFrameTest {
         FrameRegistration g = registrar.register(scene.render(W, H, Homographies.boardToFrame(board, c), 0, 0.05, 5,
                 "away.png"));
         assertFailed(g);
+    }
+
+    /**
+     * The same degenerate frames after ok frames, when the registrar may register through a chain link to the
+     * last ok frame: a link must not turn them into weak or ok mappings.
+     */
+    @Test
+    void degenerateFramesFailAlsoWhenAChainLinkIsAvailable() {
+        for (int k = 1; k <= 3; k++) {
+            double[][] c = SyntheticScene.moved(rc, W, H, 0.5 * k, 1 + 0.01 * k, 2 * k, -k);
+            FrameRegistration ok = registrar.register(scene.render(W, H, Homographies.boardToFrame(board, c), 0, 0.05,
+                    k, "good" + k + ".png"));
+            assertEquals(RegistrationStatus.OK, ok.status(), ok.reason());
+        }
+        for (long other : new long[]{1, 2, 3}) {
+            SyntheticScene different = new SyntheticScene(other);
+            double[][] c = SyntheticScene.moved(rc, W, H, 2, 1.03, 4, -3);
+            assertFailed(registrar.register(different.render(W, H, Homographies.boardToFrame(board, c), 0, 0.05, 5,
+                    "other" + other + ".png")));
+        }
+        double[][] away = SyntheticScene.moved(rc, W, H, 0, 1, 0.8 * W, 0);
+        assertFailed(registrar.register(scene.render(W, H, Homographies.boardToFrame(board, away), 0, 0.05, 5,
+                "away.png")));
+        float[] u = new float[W * H];
+        Random r = new Random(2);
+        for (int i = 0; i < u.length; i++) u[i] = 25f + (float) (0.05 * r.nextGaussian());
+        assertFailed(registrar.register(new Frame(W, H, u, 6, null, Path.of("u.png"), "", reference.decoding())));
+        assertFailed(registrar.register(new Frame(W, H, drowned(), 7, null, Path.of("hot.png"), "", reference.decoding())));
     }
 
     @Test

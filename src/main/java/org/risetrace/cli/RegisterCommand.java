@@ -72,7 +72,7 @@ public final class RegisterCommand implements Callable<Integer> {
                 s.frames(), s.ok(), s.weak(), s.failed(), s.marked(),
                 s.meanRmsPx() == null ? "n/a" : String.format(Locale.ROOT, "%.3f", s.meanRmsPx()), file);
         for (RegistrationReport.Entry e : report.frames())
-            if (e.reason() != null && !e.status().word().equals("marked"))
+            if (e.reason() != null && !e.status().word().equals("marked") && !e.status().word().equals("ok"))
                 System.out.println("  " + e.file() + ": " + e.status().word() + ": " + e.reason());
         return Main.EXIT_OK;
     }

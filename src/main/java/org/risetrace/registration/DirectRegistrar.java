@@ -341,7 +341,7 @@ final class DirectRegistrar implements Registrar {
     }
 
     private FrameRegistration viaChain(Workspace ws, Frame frame) {
-        return ws.chain.register(frame, ws);
+        return linked(ws, ws.chain.register(frame, ws));
     }
 
     /**
@@ -365,6 +365,14 @@ final class DirectRegistrar implements Registrar {
         ws.lastChained = true;
         ws.linkUses++;
         return chained;
+    }
+
+    /** A link's result with the link named in its reason (the evidence says how each frame was mapped). */
+    private static FrameRegistration linked(Workspace ws, FrameRegistration r) {
+        String via = "through " + ws.chainName + ", an earlier frame graded ok (heating changed the picture too much "
+                + "for the reference)";
+        return new FrameRegistration(r.file(), r.tSeconds(), r.status(), r.reason() == null ? via : via + "; " + r.reason(),
+                r.boardToFrame(), r.boardCornersPx(), r.inliers(), r.rmsPx(), r.similarity());
     }
 
     private void remember(Workspace ws, Frame frame, Homography refToFrame) {

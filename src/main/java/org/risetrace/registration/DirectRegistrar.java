@@ -149,11 +149,14 @@ final class DirectRegistrar implements Registrar {
             int fast = Math.min(2, top);
             // features only when no start came close: when one graded weak the frame is where it was looked for
             // and has changed (heating), which a feature start does not mend (it converged to the same mapping)
-            if (ref.features != null && (best == null || best.rank() == 0)) {
-                if (ws.matcher == null) ws.matcher = new FeatureSet.Matcher(2.0);
-                int[] inl = new int[1];
-                Homography f = ws.matcher.match(ref.features, ws.pyramid.bandPass[0], ref.width, ref.height, inl);
-                if (f != null && plausibility(f) == null) best = attempt(ws, f, fast, best);
+            if (best == null || best.rank() == 0) {
+                FeatureSet features = ref.features();
+                if (features != null) {
+                    if (ws.matcher == null) ws.matcher = new FeatureSet.Matcher(2.0);
+                    int[] inl = new int[1];
+                    Homography f = ws.matcher.match(features, ws.pyramid.bandPass[0], ref.width, ref.height, inl);
+                    if (f != null && plausibility(f) == null) best = attempt(ws, f, fast, best);
+                }
             }
             if (mayChain && (best == null || best.rank() < 2) && ws.lastGood != null) {
                 FrameRegistration chained = throughLastGood(ws, frame, chainTried);

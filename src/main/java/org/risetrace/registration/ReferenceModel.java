@@ -42,7 +42,8 @@ final class ReferenceModel {
     final Level[] level;
     final float[] scoreX, scoreY, scoreT;
     final List<Patch> patches;
-    final FeatureSet features;
+    private final boolean withFeatures;
+    private volatile FeatureSet features;
     final double referenceBandStd;
     /** True for a chain link's reference: a frame taken during heating rather than the user's cold reference. */
     final boolean heatedReference;
@@ -116,8 +117,24 @@ final class ReferenceModel {
         double m = sp.isEmpty() ? 0 : sum / sp.size();
         referenceBandStd = sp.isEmpty() ? 0 : Math.sqrt(Math.max(0, sum2 / sp.size() - m * m));
         patches = selectPatches();
-        features = config.method().equals("search") ? null : FeatureSet.detect(pyramid.bandPass[0], width, height,
-                referenceCornersPx, 2.0);
+        withFeatures = !config.method().equals("search");
+    }
+
+    /**
+     * The reference's features, detected on first use (most series never need them: the other starts grade ok,
+     * and detection costs a fresh process a few hundred milliseconds of BoofCV loading and compiling); null for
+     * the coarse-search-only method. Safe to call from several threads.
+     */
+    FeatureSet features() {
+        if (!withFeatures) return null;
+        FeatureSet f = features;
+        if (f == null) {
+            synchronized (this) {
+                f = features;
+                if (f == null) features = f = FeatureSet.detect(pyramid.bandPass[0], width, height, referenceCornersPx, 2.0);
+            }
+        }
+        return f;
     }
 
     static ReferenceModel prepare(Frame ref, Board board, RegistrationConfig config) {

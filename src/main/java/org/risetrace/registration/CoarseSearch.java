@@ -76,11 +76,9 @@ final class CoarseSearch {
                                 st += t; st2 += t * t;
                             }
                         }
-                        double cov = sft - sf * st / valid;
                         double vf = sf2 - sf * sf / valid, vt = st2 - st * st / valid;
                         if (vf <= 0 || vt <= 0) continue;
-                        double ncc = cov / Math.sqrt(vf * vt);
-                        insert(top, keep, ncc, rot, s, tx, ty);
+                        insert(top, keep, ncc(sf, sf2, sft, st, st2, valid), rot, s, tx, ty);
                     }
             }
         for (int k = 0; k < keep; k++) {
@@ -114,9 +112,59 @@ final class CoarseSearch {
             sf += f; sf2 += f * f; sft += f * t; st += t; st2 += t * t;
         }
         if (valid < lv.n / 2) return 0;
-        double vf = sf2 - sf * sf / valid, vt = st2 - st * st / valid;
-        return vf > 0 && vt > 0 ? (sft - sf * st / valid) / Math.sqrt(vf * vt) : 0;
+        return ncc(sf, sf2, sft, st, st2, valid);
     }
+
+    /** Normalised cross-correlation from the sums over n pairs (f, t); 0 when either side has no spread. */
+    static double ncc(double sf, double sf2, double sft, double st, double st2, int n) {
+        double vf = sf2 - sf * sf / n, vt = st2 - st * st / n;
+        return vf > 0 && vt > 0 ? (sft - sf * st / n) / Math.sqrt(vf * vt) : 0;
+    }
+    /** Whole-pixel shifts searched around the last estimate, in pixels of level LOCAL_LEVEL, either way. */
+    static final int LOCAL_RANGE = 3;
+    static final int LOCAL_LEVEL = 2;
+
+    /**
+     * The whole-pixel shift of level min(LOCAL_LEVEL, top) (up to LOCAL_RANGE either way) that best correlates the
+     * frame with the template through the estimate, in full-resolution pixels; null when the best is no shift.
+     */
+    static double[] localShift(ReferenceModel ref, Pyramid frame, Homography estimate) {
+        int l = Math.min(LOCAL_LEVEL, ref.levels - 1);
+        if (l == 0) return null;
+        ReferenceModel.Level lv = ref.level[l];
+        int n = lv.n, step = Math.max(1, n / 1000), m = (n + step - 1) / step;
+        if (n < 16) return null;
+        double[] h = Pyramid.toLevel(estimate, l);
+        float[] img = frame.bandPass[l];
+        int w = frame.widths[l], hh = frame.heights[l];
+        float[] px = new float[m], py = new float[m], t = new float[m];
+        for (int i = 0, k = 0; i < n; i += step, k++) {
+            double x = lv.x[i], y = lv.y[i], z = h[6] * x + h[7] * y + h[8];
+            px[k] = (float) ((h[0] * x + h[1] * y + h[2]) / z);
+            py[k] = (float) ((h[3] * x + h[4] * y + h[5]) / z);
+            t[k] = lv.t[i];
+        }
+        double bestScore = Double.NEGATIVE_INFINITY;
+        int bx = 0, by = 0;
+        for (int dy = -LOCAL_RANGE; dy <= LOCAL_RANGE; dy++)
+            for (int dx = -LOCAL_RANGE; dx <= LOCAL_RANGE; dx++) {
+                double sf = 0, sf2 = 0, sft = 0, st = 0, st2 = 0;
+                int valid = 0;
+                for (int k = 0; k < m; k++) {
+                    float f = Filters.bilinear(img, w, hh, px[k] + dx, py[k] + dy);
+                    if (f != f) continue;
+                    valid++;
+                    sf += f; sf2 += f * f; sft += f * t[k]; st += t[k]; st2 += t[k] * t[k];
+                }
+                if (valid < m / 2) continue;
+                double score = ncc(sf, sf2, sft, st, st2, valid);
+                if (score > bestScore) { bestScore = score; bx = dx; by = dy; }
+            }
+        if (bx == 0 && by == 0) return null;
+        double sc = Pyramid.scale(l);
+        return new double[]{bx * sc, by * sc};
+    }
+
 
     /** Clip limit in robust standard deviations of the reference's template values (1.5, 2 and 2.5 tried on simulated series: 1.5 failed fewest frames). */
     static final double CLIP_SIGMAS = 1.5;

@@ -184,7 +184,7 @@ final class DirectRegistrar implements Registrar {
             if (ws.previous != null) {
                 // the camera moved by whole pixels since (hand-held): start from the moved estimate one level up,
                 // within reach of the alignment; on a stand the shift is zero and this costs one small search
-                double[] moved = localShift(ws, start);
+                double[] moved = CoarseSearch.localShift(ref, ws.pyramid, start);
                 if (moved != null) {
                     Homography shifted = new Homography(new double[]{1, 0, moved[0], 0, 1, moved[1], 0, 0, 1})
                             .compose(start).normalized();
@@ -201,52 +201,6 @@ final class DirectRegistrar implements Registrar {
         } finally {
             ws.aligner.robustFromStart = false;
         }
-    }
-
-    /** Whole-pixel shifts searched around the last estimate, in pixels of level LOCAL_LEVEL, either way. */
-    static final int LOCAL_RANGE = 3;
-    static final int LOCAL_LEVEL = 2;
-
-    /**
-     * The whole-pixel shift of level min(LOCAL_LEVEL, top) (up to LOCAL_RANGE either way) that best correlates the
-     * frame with the template through the estimate, in full-resolution pixels; null when the best is no shift.
-     */
-    private double[] localShift(Workspace ws, Homography estimate) {
-        int l = Math.min(LOCAL_LEVEL, ref.levels - 1);
-        if (l == 0) return null;
-        ReferenceModel.Level lv = ref.level[l];
-        int n = lv.n, step = Math.max(1, n / 1000), m = (n + step - 1) / step;
-        if (n < 16) return null;
-        double[] h = Pyramid.toLevel(estimate, l);
-        float[] img = ws.pyramid.bandPass[l];
-        int w = ws.pyramid.widths[l], hh = ws.pyramid.heights[l];
-        float[] px = new float[m], py = new float[m], t = new float[m];
-        for (int i = 0, k = 0; i < n; i += step, k++) {
-            double x = lv.x[i], y = lv.y[i], z = h[6] * x + h[7] * y + h[8];
-            px[k] = (float) ((h[0] * x + h[1] * y + h[2]) / z);
-            py[k] = (float) ((h[3] * x + h[4] * y + h[5]) / z);
-            t[k] = lv.t[i];
-        }
-        double bestScore = Double.NEGATIVE_INFINITY;
-        int bx = 0, by = 0;
-        for (int dy = -LOCAL_RANGE; dy <= LOCAL_RANGE; dy++)
-            for (int dx = -LOCAL_RANGE; dx <= LOCAL_RANGE; dx++) {
-                double sf = 0, sf2 = 0, sft = 0, st = 0, st2 = 0;
-                int valid = 0;
-                for (int k = 0; k < m; k++) {
-                    float f = Filters.bilinear(img, w, hh, px[k] + dx, py[k] + dy);
-                    if (f != f) continue;
-                    valid++;
-                    sf += f; sf2 += f * f; sft += f * t[k]; st += t[k]; st2 += t[k] * t[k];
-                }
-                if (valid < m / 2) continue;
-                double vf = sf2 - sf * sf / valid, vt = st2 - st * st / valid;
-                double score = vf > 0 && vt > 0 ? (sft - sf * st / valid) / Math.sqrt(vf * vt) : 0;
-                if (score > bestScore) { bestScore = score; bx = dx; by = dy; }
-            }
-        if (bx == 0 && by == 0) return null;
-        double sc = Pyramid.scale(l);
-        return new double[]{bx * sc, by * sc};
     }
 
     /**
@@ -498,8 +452,7 @@ final class DirectRegistrar implements Registrar {
             sf += f; sf2 += f * f; sft += f * t; st += t; st2 += t * t;
         }
         double changed = 1 - kept / (double) valid;
-        double vf = sf2 - sf * sf / Math.max(1, kept), vt = st2 - st * st / Math.max(1, kept);
-        double similarity = kept > 16 && vf > 0 && vt > 0 ? (sft - sf * st / kept) / Math.sqrt(vf * vt) : 0;
+        double similarity = kept > 16 ? CoarseSearch.ncc(sf, sf2, sft, st, st2, kept) : 0;
         // local patch check
         int checked = 0, agree = 0;
         double sum2 = 0;

@@ -105,13 +105,8 @@ final class DirectAligner {
         float[] sd = lv.sd;
         for (int i = 0; i < n; i++) {
             if (warped[i] != warped[i]) continue;
-            double e = err[i], ae = Math.abs(e);
-            double wt;
-            if (tukey) {
-                if (ae >= k) continue;
-                double u = ae / k, v = 1 - u * u;
-                wt = v * v;
-            } else wt = ae <= k ? 1.0 : k / ae;
+            double e = err[i], wt = robustWeight(e, k, tukey);
+            if (wt == 0) continue;
             int o = 8 * i;
             for (int r = 0; r < 8; r++) {
                 double sr = sd[o + r] * wt;
@@ -121,6 +116,17 @@ final class DirectAligner {
         }
         for (int r = 0; r < 8; r++) for (int c = 0; c < r; c++) a[r * 8 + c] = a[c * 8 + r];
         return solve(a, g, params);
+    }
+
+    /** Tukey's biweight (0 beyond k) or Huber's weight (1 within k, k / |e| beyond) of residual e. */
+    private static double robustWeight(double e, double k, boolean tukey) {
+        double ae = Math.abs(e);
+        if (tukey) {
+            if (ae >= k) return 0;
+            double u = ae / k, v = 1 - u * u;
+            return v * v;
+        }
+        return ae <= k ? 1.0 : k / ae;
     }
 
     /**
@@ -136,13 +142,8 @@ final class DirectAligner {
         double g0 = 0, g1 = 0, g2 = 0, g3 = 0;
         for (int i = 0; i < n; i++) {
             if (warped[i] != warped[i]) continue;
-            double e = err[i], ae = Math.abs(e);
-            double wt;
-            if (tukey) {
-                if (ae >= k) continue;
-                double u = ae / k, v = 1 - u * u;
-                wt = v * v;
-            } else wt = ae <= k ? 1.0 : k / ae;
+            double e = err[i], wt = robustWeight(e, k, tukey);
+            if (wt == 0) continue;
             int o = 4 * i;
             double s0 = sd[o], s1 = sd[o + 1], s2 = sd[o + 2], s3 = sd[o + 3];
             double w0 = s0 * wt, w1 = s1 * wt, w2 = s2 * wt, w3 = s3 * wt;

@@ -2,6 +2,7 @@ package org.risetrace.io;
 
 import org.junit.jupiter.api.Tag;
 import org.junit.jupiter.api.Test;
+import org.risetrace.bench.ImportBenchmark;
 import org.junit.jupiter.api.io.TempDir;
 
 import javax.imageio.ImageIO;
@@ -44,12 +45,6 @@ class PngDecodeBenchmark {
                 v[y * W + x] = (int) Math.round(c + 5 * rnd.nextGaussian());
             }
         return v;
-    }
-
-    static double median(double[] t) {
-        double[] c = t.clone();
-        Arrays.sort(c);
-        return c[c.length / 2];
     }
 
     @Test
@@ -99,7 +94,7 @@ class PngDecodeBenchmark {
             }
             long size = 0;
             for (byte[] b : bytes) size += b.length;
-            double mi = median(tImageIo), md = median(tDirect);
+            double mi = ImportBenchmark.median(tImageIo), md = ImportBenchmark.median(tDirect);
             double fi = Arrays.stream(tImageIo).min().orElseThrow(), fd = Arrays.stream(tDirect).min().orElseThrow();
             System.out.printf(Locale.ROOT, "  %-15s %4.0f KiB/frame  ImageIO path %6.2f ms/frame  direct %6.2f ms/frame"
                             + "  ratio %.1fx (median pass)  %.1fx (fastest pass)%s%n",

@@ -24,7 +24,8 @@ import java.util.ArrayList;
 import java.util.List;
 
 /**
- * Capture times from image metadata, read with Commons Imaging without decoding pixels: EXIF DateTimeOriginal
+ * Capture times from image metadata (JPEG APP1, TIFF directories, a PNG's eXIf chunk), read with Commons Imaging
+ * without decoding pixels: EXIF DateTimeOriginal
  * (tag 0x9003) with SubSecTimeOriginal (0x9291) and OffsetTimeOriginal (0x9011) per CIPA DC-008 (EXIF 2.32),
  * else TIFF DateTime (tag 306, TIFF 6.0) with SubSecTime (0x9290) and OffsetTime (0x9010). Both date tags are
  * ASCII "YYYY:MM:DD HH:MM:SS"; sub-seconds are the decimal digits of the fraction ("25" = 0.25 s). Without an
@@ -47,7 +48,7 @@ public final class CaptureTimes {
     public record CaptureTime(Instant instant, String tag) {
     }
 
-    /** The capture time in the file's metadata, or null when it has none (or the file is not JPEG/TIFF). */
+    /** The capture time in the file's metadata, or null when it has none (or the file is not JPEG/TIFF/PNG). */
     public static CaptureTime read(Path file) {
         byte[] head = new byte[4];
         try (InputStream in = Files.newInputStream(file)) {
@@ -57,15 +58,20 @@ public final class CaptureTimes {
         }
         boolean jpeg = (head[0] & 0xFF) == 0xFF && (head[1] & 0xFF) == 0xD8;
         boolean tiff = (head[0] == 'I' && head[1] == 'I' && head[2] == 42) || (head[0] == 'M' && head[1] == 'M' && head[3] == 42);
-        if (!jpeg && !tiff) return null;
+        boolean png = (head[0] & 0xFF) == 0x89 && head[1] == 'P' && head[2] == 'N' && head[3] == 'G';
+        if (!jpeg && !tiff && !png) return null;
         try {
+            if (png) {
+                byte[] exif = pngExif(file);
+                if (exif == null) return null;
+                return fromFields(fields(new TiffReader(true).readDirectories(ByteSource.array(exif), false,
+                        FormatCompliance.getDefault())));
+            }
             if (tiff) {
                 // only the directories (IFD 0, EXIF IFD, ...), not the strips: opening a long series stays cheap
                 TiffContents contents = new TiffReader(true).readDirectories(ByteSource.file(file.toFile()), false,
                         FormatCompliance.getDefault());
-                List<TiffField> fields = new ArrayList<>();
-                for (TiffDirectory d : contents.directories) fields.addAll(d.getDirectoryEntries());
-                return fromFields(fields);
+                return fromFields(fields(contents));
             }
             ImageMetadata md = Imaging.getMetadata(file.toFile());
             TiffImageMetadata exif = md instanceof JpegImageMetadata j ? j.getExif()
@@ -74,6 +80,43 @@ public final class CaptureTimes {
             return fromFields(exif.getAllFields());
         } catch (IOException | RuntimeException e) {
             return null; // a damaged file is reported when its pixels are decoded
+        }
+    }
+
+    private static List<TiffField> fields(TiffContents contents) {
+        List<TiffField> fields = new ArrayList<>();
+        for (TiffDirectory d : contents.directories) fields.addAll(d.getDirectoryEntries());
+        return fields;
+    }
+
+    /** Largest eXIf payload read (EXIF in a JPEG APP1 segment is limited to 64 KiB; allow some more). */
+    static final int MAX_PNG_EXIF_BYTES = 1 << 20;
+
+    /**
+     * The data of a PNG's eXIf chunk (PNG extensions 1.5.0 and the PNG third edition: an EXIF block in TIFF
+     * layout, "MM\0*" or "II*\0" first), or null when it has none. Only chunk headers are read on the way; the
+     * chunk CRCs are checked when the pixels are decoded.
+     */
+    static byte[] pngExif(Path file) throws IOException {
+        try (java.nio.channels.SeekableByteChannel ch = Files.newByteChannel(file)) {
+            long pos = 8, size = ch.size();
+            java.nio.ByteBuffer header = java.nio.ByteBuffer.allocate(8);
+            while (pos + 12 <= size) {
+                header.clear();
+                ch.position(pos);
+                while (header.hasRemaining()) if (ch.read(header) < 0) return null;
+                long length = header.getInt(0) & 0xFFFFFFFFL;
+                String type = new String(header.array(), 4, 4, java.nio.charset.StandardCharsets.ISO_8859_1);
+                if (type.equals("IEND") || length > size - pos - 12) return null;
+                if (type.equals("eXIf")) {
+                    if (length < 8 || length > MAX_PNG_EXIF_BYTES) return null;
+                    java.nio.ByteBuffer data = java.nio.ByteBuffer.allocate((int) length);
+                    while (data.hasRemaining()) if (ch.read(data) < 0) return null;
+                    return data.array();
+                }
+                pos += 12 + length;
+            }
+            return null;
         }
     }
 

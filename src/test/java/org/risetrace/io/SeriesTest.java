@@ -193,6 +193,61 @@ class SeriesTest {
         assertEquals(Instant.parse("2026-11-30T12:05:08.5Z"), s.read(2).instant());
     }
 
+    /**
+     * An 8-bit grey PNG written by ImageIO with an eXIf chunk inserted after IHDR (PNG extensions 1.5.0 / PNG third
+     * edition: the chunk's data is an EXIF block in TIFF layout; CRC-32 over type and data, ISO/IEC 15948 5.3).
+     * The EXIF block is written by Commons Imaging's TIFF writer, as for a JPEG's APP1 segment.
+     */
+    Path pngWithExif(String name, String dateTimeOriginal, String subSec, String offset) throws Exception {
+        ByteArrayOutputStream png = new ByteArrayOutputStream();
+        ImageIO.write(TestImages.byteGrey(16, 12), "png", png);
+        TiffOutputSet set = new TiffOutputSet();
+        TiffOutputDirectory exif = set.getOrCreateExifDirectory();
+        exif.add(ExifTagConstants.EXIF_TAG_DATE_TIME_ORIGINAL, dateTimeOriginal);
+        if (subSec != null) exif.add(ExifTagConstants.EXIF_TAG_SUB_SEC_TIME_ORIGINAL, subSec);
+        if (offset != null)
+            exif.add(new TagInfoAscii("OffsetTimeOriginal", 0x9011, 7, TiffDirectoryType.EXIF_DIRECTORY_EXIF_IFD), offset);
+        ByteArrayOutputStream block = new ByteArrayOutputStream();
+        new org.apache.commons.imaging.formats.tiff.write.TiffImageWriterLossy().write(block, set);
+        byte[] data = block.toByteArray(), p = png.toByteArray();
+        ByteArrayOutputStream chunk = new ByteArrayOutputStream();
+        java.io.DataOutputStream c = new java.io.DataOutputStream(chunk);
+        c.writeInt(data.length);
+        byte[] typeAndData = new byte[4 + data.length];
+        System.arraycopy("eXIf".getBytes(java.nio.charset.StandardCharsets.US_ASCII), 0, typeAndData, 0, 4);
+        System.arraycopy(data, 0, typeAndData, 4, data.length);
+        c.write(typeAndData);
+        java.util.zip.CRC32 crc = new java.util.zip.CRC32();
+        crc.update(typeAndData);
+        c.writeInt((int) crc.getValue());
+        int afterIhdr = 8 + 8 + 13 + 4; // signature, IHDR length + type, 13 data bytes, CRC
+        ByteArrayOutputStream out = new ByteArrayOutputStream();
+        out.write(p, 0, afterIhdr);
+        out.write(chunk.toByteArray());
+        out.write(p, afterIhdr, p.length - afterIhdr);
+        return Files.write(dir.resolve(name), out.toByteArray());
+    }
+
+    @Test
+    void pngExifDateTimeOriginalGivesTheTimesAndThePixelsStillDecode() throws Exception {
+        // CIPA DC-008 (EXIF 2.32) tags as in the JPEG test above, carried in a PNG eXIf chunk
+        pngWithExif("p1.png", "2026:11:30 14:05:07", "25", "+02:00");
+        pngWithExif("p2.png", "2026:11:30 14:05:07", "75", "+02:00");
+        pngWithExif("p3.png", "2026:11:30 14:05:09", null, "+02:00");
+        Files.writeString(dir.resolve("series.json"), "{\"span_c\": [20, 40]}");
+        Series s = Series.open(dir);
+        assertEquals("EXIF DateTimeOriginal", s.timeSource());
+        assertEquals(0.0, s.tSeconds(0), 1e-9);
+        assertEquals(0.5, s.tSeconds(1), 1e-9);
+        assertEquals(1.75, s.tSeconds(2), 1e-9);
+        assertEquals(Instant.parse("2026-11-30T12:05:07.25Z"), s.instant(0));
+        // the chunk is ancillary (lower-case first letter, ISO/IEC 15948 5.4): both decoders skip it
+        BufferedImage ref = TestImages.byteGrey(16, 12);
+        Frame f = s.read(1);
+        for (int i = 0; i < 16 * 12; i++)
+            assertEquals(20 + 20.0 * ref.getRaster().getSample(i % 16, i / 16, 0) / 255, f.celsius()[i], 1e-4);
+    }
+
     @Test
     void exifTimesThatGoBackwardsAreRejected() throws Exception {
         jpegWithExif("c1.jpg", "2026:11:30 14:05:09", null, null);

@@ -326,8 +326,7 @@ final class DirectRegistrar implements Registrar {
 
     /** A link's result with the link named in its reason (the evidence says how each frame was mapped). */
     private static FrameRegistration linked(Workspace ws, FrameRegistration r) {
-        String via = "through " + ws.chainName + ", an earlier frame graded ok (heating changed the picture too much "
-                + "for the reference)";
+        String via = "through " + ws.chainName + " (an earlier ok frame: heating changed the picture)";
         return new FrameRegistration(r.file(), r.tSeconds(), r.status(), r.reason() == null ? via : via + "; " + r.reason(),
                 r.boardToFrame(), r.boardCornersPx(), r.inliers(), r.rmsPx(), r.similarity());
     }

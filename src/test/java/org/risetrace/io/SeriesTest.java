@@ -161,16 +161,22 @@ class SeriesTest {
         assertEquals(25.0, s.read(0).at(0, 0), 1e-4);
     }
 
-    /** A JPEG written by ImageIO, then given EXIF tags by Commons Imaging's ExifRewriter. */
-    Path jpegWithExif(String name, String dateTimeOriginal, String subSec, String offset) throws Exception {
-        ByteArrayOutputStream jpeg = new ByteArrayOutputStream();
-        ImageIO.write(TestImages.byteGrey(16, 12), "jpeg", jpeg);
+    /** DateTimeOriginal with optional SubSecTimeOriginal and OffsetTimeOriginal (CIPA DC-008 tags 0x9003, 0x9291, 0x9011). */
+    static TiffOutputSet exifTimes(String dateTimeOriginal, String subSec, String offset) throws Exception {
         TiffOutputSet set = new TiffOutputSet();
         TiffOutputDirectory exif = set.getOrCreateExifDirectory();
         exif.add(ExifTagConstants.EXIF_TAG_DATE_TIME_ORIGINAL, dateTimeOriginal);
         if (subSec != null) exif.add(ExifTagConstants.EXIF_TAG_SUB_SEC_TIME_ORIGINAL, subSec);
         if (offset != null)
             exif.add(new TagInfoAscii("OffsetTimeOriginal", 0x9011, 7, TiffDirectoryType.EXIF_DIRECTORY_EXIF_IFD), offset);
+        return set;
+    }
+
+    /** A JPEG written by ImageIO, then given EXIF tags by Commons Imaging's ExifRewriter. */
+    Path jpegWithExif(String name, String dateTimeOriginal, String subSec, String offset) throws Exception {
+        ByteArrayOutputStream jpeg = new ByteArrayOutputStream();
+        ImageIO.write(TestImages.byteGrey(16, 12), "jpeg", jpeg);
+        TiffOutputSet set = exifTimes(dateTimeOriginal, subSec, offset);
         ByteArrayOutputStream out = new ByteArrayOutputStream();
         new ExifRewriter().updateExifMetadataLossless(jpeg.toByteArray(), out, set);
         return Files.write(dir.resolve(name), out.toByteArray());
@@ -201,12 +207,7 @@ class SeriesTest {
     Path pngWithExif(String name, String dateTimeOriginal, String subSec, String offset) throws Exception {
         ByteArrayOutputStream png = new ByteArrayOutputStream();
         ImageIO.write(TestImages.byteGrey(16, 12), "png", png);
-        TiffOutputSet set = new TiffOutputSet();
-        TiffOutputDirectory exif = set.getOrCreateExifDirectory();
-        exif.add(ExifTagConstants.EXIF_TAG_DATE_TIME_ORIGINAL, dateTimeOriginal);
-        if (subSec != null) exif.add(ExifTagConstants.EXIF_TAG_SUB_SEC_TIME_ORIGINAL, subSec);
-        if (offset != null)
-            exif.add(new TagInfoAscii("OffsetTimeOriginal", 0x9011, 7, TiffDirectoryType.EXIF_DIRECTORY_EXIF_IFD), offset);
+        TiffOutputSet set = exifTimes(dateTimeOriginal, subSec, offset);
         ByteArrayOutputStream block = new ByteArrayOutputStream();
         new org.apache.commons.imaging.formats.tiff.write.TiffImageWriterLossy().write(block, set);
         byte[] data = block.toByteArray(), p = png.toByteArray();

@@ -18,7 +18,7 @@ import java.util.Map;
  *                           the map has many pixels, so many chances for a noise peak)
  * @param blurPx             optics blur, Gaussian sigma in frame pixels; the rise map is smoothed at this scale
  * @param maxHotspots        most hot spots reported
- * @param weakFractionLimit  above this fraction of weakly registered frames the verdict is at most inconclusive
+ * @param weakFractionLimit  above this fraction of weakly registered frames an identified verdict says so
  * @param ambientGapMm       background band: gap outside the outline
  * @param ambientBandMm      background band: width
  * @param pxPerMm            board-space resolution (null: the rectifier's default for the board)

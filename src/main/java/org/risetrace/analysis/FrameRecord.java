@@ -23,11 +23,18 @@ public record FrameRecord(
      * @param rmsPx          residual RMS in pixels
      * @param reason         why weak or failed
      * @param boardCornersPx the four board corners in the frame's pixels (outline order)
+     * @param cornerSigmaPx  estimated RMS error of those corners in frame pixels (null when not estimated)
      */
     public record Registration(
             @JsonProperty("status") String status,
             @JsonProperty("rms_px") Double rmsPx,
             @JsonProperty("reason") String reason,
-            @JsonProperty("board_corners_px") double[][] boardCornersPx) {
+            @JsonProperty("board_corners_px") double[][] boardCornersPx,
+            @JsonProperty("corner_sigma_px") Double cornerSigmaPx) {
+
+        /** Without an uncertainty estimate. */
+        public Registration(String status, Double rmsPx, String reason, double[][] boardCornersPx) {
+            this(status, rmsPx, reason, boardCornersPx, null);
+        }
     }
 }

@@ -41,6 +41,8 @@ public final class SeriesAnalysis {
     private final List<Boolean> weak = new ArrayList<>();
     private final List<Double> weakRmsPx = new ArrayList<>();
     private final List<org.risetrace.registration.Homography> mappings = new ArrayList<>();
+    /** Estimated corner error of each used frame's mapping, frame px (0 for marked or unknown). */
+    private final List<Double> cornerSigmaPx = new ArrayList<>();
     private int baselineUsed;
     private RiseMaps maps;
     private FootprintSampler footprints;
@@ -48,7 +50,7 @@ public final class SeriesAnalysis {
     private double framePxPerMm = Double.NaN;
     private double lastT = Double.NEGATIVE_INFINITY;
     private double windowUsedS = Double.NaN;
-    private double positionScale = 0;
+    private double positionSigmaBoardPx = 0;
 
 
     public SeriesAnalysis(Board board, AnalysisOptions options, BaselinePlan plan, EmissivityModel emissivity,
@@ -68,7 +70,7 @@ public final class SeriesAnalysis {
         FrameRegistration r = s.registration();
         records.add(new FrameRecord(s.file(), s.tS(), s.sha256(), s.used(), r == null ? null
                 : new FrameRecord.Registration(r.status().word(), Double.isFinite(r.rmsPx()) ? r.rmsPx() : null,
-                r.reason(), r.boardCornersPx())));
+                r.reason(), r.boardCornersPx(), Double.isFinite(r.cornerSigmaPx()) ? r.cornerSigmaPx() : null)));
         if (!s.used()) return;
         if (s.tS() <= lastT) throw new IllegalStateException("frames out of order at " + s.file());
         lastT = s.tS();
@@ -91,6 +93,7 @@ public final class SeriesAnalysis {
         weak.add(r.status() == RegistrationStatus.WEAK);
         if (r.status() == RegistrationStatus.WEAK && Double.isFinite(r.rmsPx())) weakRmsPx.add(r.rmsPx());
         mappings.add(r.boardToFrame());
+        cornerSigmaPx.add(Double.isFinite(r.cornerSigmaPx()) ? r.cornerSigmaPx() : 0.0);
         lastRaster = raster;
     }
 
@@ -119,6 +122,29 @@ public final class SeriesAnalysis {
         return Double.isFinite(tHalf) ? Math.min(o.rateWindowS(), Math.max(tHalf - tStartS, 0)) : o.rateWindowS();
     }
 
+    /**
+     * How far the mapping can have wandered between the start and the end of the rate window, in board px: the
+     * root sum of squares of the mean squared corner error estimate over the first and over the last third of the
+     * window's frames (the same frame selection as {@link PartCurve#measure}). Errors of the two ends are taken as
+     * independent; a wander that is systematic over the window is what the per-frame estimates measure, so no
+     * division by the number of frames.
+     */
+    static double windowEndsSigma(double[] t, double[] sigmaBoardPx, double tStartS, double windowS, int minFrames) {
+        int n = t.length, from = 0;
+        while (from < n && t[from] <= tStartS) from++;
+        int to = from;
+        while (to < n && (t[to] <= tStartS + windowS || to - from < minFrames)) to++;
+        int m = to - from;
+        if (m < 2) return 0;
+        int third = Math.max(1, m / 3);
+        double early = 0, late = 0;
+        for (int i = 0; i < third; i++) {
+            early += sigmaBoardPx[from + i] * sigmaBoardPx[from + i] / third;
+            late += sigmaBoardPx[to - 1 - i] * sigmaBoardPx[to - 1 - i] / third;
+        }
+        return Math.sqrt(early + late);
+    }
+
     /** Measures, ranks and decides. */
     public Analysis finish() {
         records.sort(Comparator.comparingDouble(FrameRecord::tS));
@@ -139,32 +165,13 @@ public final class SeriesAnalysis {
 
         // per part: object temperatures, weights, how far registration and resampling alone can move each reading
         float[] baseMean = maps.baselineMean();
-        // how far the sampling phase can wander: the displacement of the board centre in the frame over the frames
-        // after the injection start (frame px converted to board px); relative to half a pixel it scales each
-        // footprint's half-pixel sensitivity
+        // how far the sampling can wander through the mapping alone: the mapping uncertainty of the frames at the two
+        // ends of the rate window (frame px, converted to board px), never the camera's own motion, which
+        // registration removed; relative to half a board pixel it scales each footprint's half-pixel sensitivity
         double boardPxPerFramePx = Double.isFinite(framePxPerMm) && framePxPerMm > 0 ? maps.pxPerMm() / framePxPerMm : 1;
-        List<double[]> centres = new ArrayList<>();
-        for (int i = 0; i < n; i++)
-            if (t[i] > plan.tStartS() && mappings.get(i) != null)
-                centres.add(mappings.get(i).apply(board.widthMm() / 2, board.heightMm() / 2));
-        // systematic wander only: mean position of the first three frames against that of the last three, so the
-        // frame-to-frame scatter of the mapping (already in the fit's residuals) does not count twice
-        double drift = 0;
-        if (centres.size() >= 2) {
-            int m = Math.min(3, centres.size() / 2);
-            double ax = 0, ay = 0, bx = 0, by = 0;
-            for (int i = 0; i < m; i++) {
-                ax += centres.get(i)[0] / m;
-                ay += centres.get(i)[1] / m;
-                bx += centres.get(centres.size() - 1 - i)[0] / m;
-                by += centres.get(centres.size() - 1 - i)[1] / m;
-            }
-            drift = Math.hypot(bx - ax, by - ay);
-        }
-        // (a weak frame's residual is scatter from frame to frame, which the rate fit's residuals already measure;
-        // only the wander of the mapping itself biases a rate)
-        double positionScale = drift * boardPxPerFramePx / 0.5;
-        this.positionScale = positionScale;
+        double[] mappingSigmaBoardPx = new double[n];
+        for (int i = 0; i < n; i++) mappingSigmaBoardPx[i] = cornerSigmaPx.get(i) * boardPxPerFramePx;
+        double positionSigma = windowEndsSigma(t, mappingSigmaBoardPx, plan.tStartS(), options.rateWindowS(), options.minRateFrames());
         EmissivityModel.Emissivity[] eps = new EmissivityModel.Emissivity[np];
         double[] gain = new double[np], lowScale = new double[np], highScale = new double[np];
         Arrays.fill(lowScale, 1.0);
@@ -205,20 +212,23 @@ public final class SeriesAnalysis {
             ys[p] = y;
             ws[p] = w;
             meanValid[p] = validSum / n;
-            positionErrorK[p] = footprints.halfPixelSensitivity(baseMean, p) * positionScale / eps[p].value();
+            positionErrorK[p] = footprints.halfPixelSensitivity(baseMean, p) / 0.5 / eps[p].value();
         }
         // the rate window: up to the time the most-risen part reached half its end rise (a first-order curve is
         // still nearly straight there, at 0.69 tau), at most rateWindowS
         PartCurve[] curves = new PartCurve[np];
         for (int p = 0; p < np; p++)
             curves[p] = PartCurve.measure(t, ys[p], amb, ws[p], baselineUsed, plan.tStartS(), options.rateWindowS(),
-                    positionErrorK[p], options);
+                    positionErrorK[p] * positionSigma, options);
         double windowS = rateWindow(t, curves, options, plan.tStartS());
-        if (windowS < options.rateWindowS())
+        if (windowS < options.rateWindowS()) {
+            positionSigma = windowEndsSigma(t, mappingSigmaBoardPx, plan.tStartS(), windowS, options.minRateFrames());
             for (int p = 0; p < np; p++)
                 curves[p] = PartCurve.measure(t, ys[p], amb, ws[p], baselineUsed, plan.tStartS(), windowS,
-                        positionErrorK[p], options);
+                        positionErrorK[p] * positionSigma, options);
+        }
         this.windowUsedS = windowS;
+        this.positionSigmaBoardPx = positionSigma;
 
         // rise map and hot spots, on object temperatures: each part's footprint scaled by its correction's gain,
         // the rest of the board by the gain at the default emissivity
@@ -335,8 +345,9 @@ public final class SeriesAnalysis {
         params.put("ambient_source", context.ambientSource());
         if (maps != null) params.put("board_px_per_mm", maps.pxPerMm());
         params.put("rate_window_used_s", finite(windowUsedS));
-        params.put("position_error", "half-pixel resampling sensitivity of each footprint on the baseline");
-        params.put("position_error_scale", positionScale);
+        params.put("position_error", "each footprint's sensitivity to a board-pixel shift on the baseline, times the"
+                + " mapping uncertainty (corner_sigma_px) at the two ends of the rate window");
+        params.put("position_sigma_board_px", positionSigmaBoardPx);
         if (maps != null) params.put("pixel_noise_k", finite(maps.pixelSigma()));
         return new AnalysisResult(AnalysisResult.SCHEMA, "risetrace", context.version(), Instant.now().toString(),
                 context.series(), context.boardFile(), context.profile(), params, context.injection(), v, parts,

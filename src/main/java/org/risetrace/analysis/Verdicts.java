@@ -18,10 +18,11 @@ import java.util.Locale;
  *     sqrt(se1^2 + se2^2), the leader's rate taken at its least favourable emissivity (e + u) and the runner-up's at
  *     its most favourable (e - u), each standard error at that emissivity. The emissivity uncertainty is a scale
  *     error: it cannot make a zero rise non-zero, so it does not enter the "too little heating" test.</li>
- * <li>{@code inconclusive}, "registration weak": more than {@code weakFractionLimit} of the used frames registered
- *     weakly and the lead is under twice {@code separationSigma} (the weak frames' residuals already widen every
- *     part's error through its position error, so a lead of twice the required separation survives them).</li>
- * <li>otherwise {@code identified}.</li>
+ * <li>otherwise {@code identified}; when more than {@code weakFractionLimit} of the used frames registered weakly,
+ *     the reason says so. Weak frames do not make a verdict inconclusive by their number: each frame's estimated
+ *     mapping error already enters every rate's standard error (the position term, {@link SeriesAnalysis}), so a
+ *     lead that survives it stands. (An earlier rule made a verdict inconclusive above a quarter of weak frames; with
+ *     weak meaning "few textured check patches" it turned plain hand-held and long captures inconclusive.)</li>
  * </ol>
  */
 public final class Verdicts {
@@ -127,14 +128,13 @@ public final class Verdicts {
             return new Verdict(VerdictStatus.INCONCLUSIVE, leadRef, leadRate, secondRef, sep,
                     "two parts level: " + leadRef + " (" + rate(lead, unit) + ") and " + secondRef + " (" + rate(second, unit)
                             + ") differ by " + num(sep) + " combined standard errors, under " + num(o.separationSigma()));
-        boolean clearLead = sep == null || sep >= 2 * o.separationSigma();
-        if (usedFrames > 0 && weakFrames > o.weakFractionLimit() * usedFrames && !clearLead)
-            return new Verdict(VerdictStatus.INCONCLUSIVE, leadRef, leadRate, secondRef, sep,
-                    "registration weak in " + weakFrames + " of " + usedFrames + " frames: " + leadRef
-                            + " leads, but check the alignment and capture again with the camera held still");
+        String weakNote = usedFrames > 0 && weakFrames > o.weakFractionLimit() * usedFrames
+                ? " (registration weak in " + weakFrames + " of " + usedFrames
+                + " frames; their mapping error is part of every rate's error)" : "";
         return new Verdict(VerdictStatus.IDENTIFIED, leadRef, leadRate, secondRef, sep,
                 leadRef + (unit.equals("K") ? " warmed most: " : " heats fastest: ") + rate(lead, unit)
-                        + (sep == null ? "" : ", " + num(sep) + " combined standard errors ahead of " + secondRef));
+                        + (sep == null ? "" : ", " + num(sep) + " combined standard errors ahead of " + secondRef)
+                        + weakNote);
     }
 
     /** True when the point lies within marginMm of some part's (rotated) footprint rectangle. */

@@ -9,7 +9,10 @@ package org.risetrace.registration;
 final class DirectAligner {
     /** Medians of residuals are taken over a regular subsample of about this many pixels. */
     static final int MEDIAN_SAMPLES = 1000;
-    private float[] warped = new float[0], err = new float[0], abs = new float[0];
+    private float[] warped = new float[0], err = new float[0], abs = new float[0], change = new float[0];
+    /** Leave out template pixels whose local mean changed against the reference's (heat, not texture). */
+    static boolean MASK_CHANGED = true;
+    static double MASK_K = 4.0;
     /** True when the last level's final step moved no corner of the image by more than the tolerance. */
     boolean converged;
     int iterations;
@@ -37,7 +40,9 @@ final class DirectAligner {
             boolean settled = false;
             for (int it = 0; it < maxIter; it++) {
                 iterations++;
-                double[] dp = step(lv, frame.bandPass[l], frame.widths[l], frame.heights[l], hl, params, it >= 3 || l < fromLevel || robustFromStart);
+                boolean robust = it >= 3 || l < fromLevel || robustFromStart;
+                double[] dp = step(lv, frame.bandPass[l], robust && MASK_CHANGED ? frame.lowPass[l] : null,
+                        frame.widths[l], frame.heights[l], hl, params, robust);
                 if (dp == null) return null;
                 double[] dh = incrementInPixels(dp, lv);
                 double[] inv = invert(dh);
@@ -53,11 +58,12 @@ final class DirectAligner {
     }
 
     private void ensure(int n) {
-        if (warped.length < n) { warped = new float[n]; err = new float[n]; abs = new float[n]; }
+        if (warped.length < n) { warped = new float[n]; err = new float[n]; abs = new float[n]; change = new float[n]; }
     }
 
     /** One Gauss-Newton step: the parameter increment (8 values, the last two 0 for affine) or null. */
-    private double[] step(ReferenceModel.Level lv, float[] img, int w, int h, double[] H, int params, boolean tukey) {
+    private double[] step(ReferenceModel.Level lv, float[] img, float[] low, int w, int h, double[] H, int params,
+                          boolean tukey) {
         int n = lv.n, valid = 0;
         double si = 0, si2 = 0;
         for (int i = 0; i < n; i++) {
@@ -69,8 +75,10 @@ final class DirectAligner {
             if (f == f) {
                 valid++;
                 si += f; si2 += f * f;
+                if (low != null) change[i] = Filters.bilinear(low, w, h, u, v) - lv.low[i];
             }
         }
+        if (low != null && valid > 0) maskChanged(n);
         if (valid < Math.max(16, n / 4)) return null;
         double sdI = Math.sqrt(Math.max(0, si2 / valid - (si / valid) * (si / valid)));
         if (sdI < 1e-12) return null;
@@ -116,6 +124,138 @@ final class DirectAligner {
         }
         for (int r = 0; r < 8; r++) for (int c = 0; c < r; c++) a[r * 8 + c] = a[c * 8 + r];
         return solve(a, g, params);
+    }
+
+    /**
+     * The mapping's statistical uncertainty at the board corners, from the full-resolution normal equations at the
+     * final estimate: covariance of the motion parameters C = s^2 H^-1 with H = sum w sd sd^T over the template
+     * pixels and s^2 = sum w e^2 / (sum w - P) (weighted least squares, Tukey weights as in the last step;
+     * Bates and Watts, Nonlinear Regression Analysis, ch. 2), propagated to each reference corner through the
+     * linearised increment warp, J C J^T. Returns the mean over the corners of trace(J C J^T) in squared reference
+     * pixels (the expected squared corner displacement), NaN when the equations are singular. Residuals of
+     * neighbouring band-passed pixels are correlated (blur, filter support), so this understates the error by a
+     * roughly constant factor that {@link DirectRegistrar} calibrates.
+     *
+     * @param params 4 for the similarity, 8 for the homography
+     */
+    double cornerVariance(ReferenceModel ref, Pyramid frame, Homography h, int params) {
+        ReferenceModel.Level lv = ref.level[0];
+        if (lv.n < 16) return Double.NaN;
+        ensure(lv.n);
+        double[] H = h.normalized().values();
+        float[] img = frame.bandPass[0];
+        int w = frame.widths[0], hh = frame.heights[0], n = lv.n, valid = 0;
+        for (int i = 0; i < n; i++) {
+            double x = lv.x[i], y = lv.y[i];
+            double z = H[6] * x + H[7] * y + H[8];
+            float f = Filters.bilinear(img, w, hh, (H[0] * x + H[1] * y + H[2]) / z, (H[3] * x + H[4] * y + H[5]) / z);
+            warped[i] = f;
+            if (f == f) abs[valid++] = f - lv.t[i];
+        }
+        if (valid < 16) return Double.NaN;
+        double offset = select(abs, valid, valid / 2);
+        int m = 0;
+        for (int i = 0; i < n; i++) {
+            float f = warped[i];
+            if (f != f) continue;
+            float e = (float) (f - offset - lv.t[i]);
+            err[i] = e;
+            abs[m++] = Math.abs(e);
+        }
+        double sigma = Math.max(1.4826 * select(abs, m, m / 2), 1e-9), k = 4.685 * sigma;
+        int p = params == 4 ? 4 : 8;
+        double[] a = new double[p * p];
+        double sw = 0, swe2 = 0;
+        for (int i = 0; i < n; i++) {
+            if (warped[i] != warped[i]) continue;
+            double e = err[i], wt = robustWeight(e, k, true);
+            if (wt == 0) continue;
+            sw += wt;
+            swe2 += wt * e * e;
+            for (int r = 0; r < p; r++) {
+                double sr = (p == 4 ? lv.sd4[4 * i + r] : lv.sd[8 * i + r]) * wt;
+                for (int c = r; c < p; c++) a[r * p + c] += sr * (p == 4 ? lv.sd4[4 * i + c] : lv.sd[8 * i + c]);
+            }
+        }
+        if (!(sw > p)) return Double.NaN;
+        for (int r = 0; r < p; r++) for (int c = 0; c < r; c++) a[r * p + c] = a[c * p + r];
+        double[] inv = invertSymmetric(a, p);
+        if (inv == null) return Double.NaN;
+        double s2 = swe2 / (sw - p);
+        double total = 0;
+        double[][] corners = ref.referenceCornersPx;
+        double[] jx = new double[p], jy = new double[p];
+        for (double[] c : corners) {
+            double xn = (c[0] - lv.cx) / lv.sc, yn = (c[1] - lv.cy) / lv.sc, sc = lv.sc;
+            if (p == 4) { // p0 = p3 = q0, p1 = q1, p2 = -q1, p4 = q2, p5 = q3
+                jx[0] = xn * sc; jx[1] = -yn * sc; jx[2] = sc; jx[3] = 0;
+                jy[0] = yn * sc; jy[1] = xn * sc; jy[2] = 0; jy[3] = sc;
+            } else { // displacement of the increment warp N^-1 (I + dP) N, linearised at the identity
+                jx[0] = xn * sc; jx[1] = 0; jx[2] = yn * sc; jx[3] = 0; jx[4] = sc; jx[5] = 0;
+                jx[6] = -xn * xn * sc; jx[7] = -xn * yn * sc;
+                jy[0] = 0; jy[1] = xn * sc; jy[2] = 0; jy[3] = yn * sc; jy[4] = 0; jy[5] = sc;
+                jy[6] = -xn * yn * sc; jy[7] = -yn * yn * sc;
+            }
+            total += quadratic(inv, jx, p) + quadratic(inv, jy, p);
+        }
+        double v = s2 * total / corners.length;
+        return Double.isFinite(v) && v >= 0 ? v : Double.NaN;
+    }
+
+    /** v^T M v for a p x p matrix M (row-major). */
+    private static double quadratic(double[] mat, double[] v, int p) {
+        double s = 0;
+        for (int r = 0; r < p; r++) {
+            double row = 0;
+            for (int c = 0; c < p; c++) row += mat[r * p + c] * v[c];
+            s += v[r] * row;
+        }
+        return s;
+    }
+
+    /** Inverse of a symmetric positive-definite p x p matrix by Gauss-Jordan with pivoting; null when singular. */
+    static double[] invertSymmetric(double[] a, int p) {
+        double[][] m = new double[p][2 * p];
+        for (int r = 0; r < p; r++) {
+            for (int c = 0; c < p; c++) m[r][c] = a[r * p + c];
+            m[r][p + r] = 1;
+        }
+        for (int c = 0; c < p; c++) {
+            int piv = c;
+            for (int r = c + 1; r < p; r++) if (Math.abs(m[r][c]) > Math.abs(m[piv][c])) piv = r;
+            if (Math.abs(m[piv][c]) < 1e-300) return null;
+            double[] t = m[c]; m[c] = m[piv]; m[piv] = t;
+            double d = m[c][c];
+            for (int k = 0; k < 2 * p; k++) m[c][k] /= d;
+            for (int r = 0; r < p; r++) {
+                if (r == c) continue;
+                double f = m[r][c];
+                if (f != 0) for (int k = 0; k < 2 * p; k++) m[r][k] -= f * m[c][k];
+            }
+        }
+        double[] inv = new double[p * p];
+        for (int r = 0; r < p; r++) for (int c = 0; c < p; c++) inv[r * p + c] = m[r][p + c];
+        for (double v : inv) if (!Double.isFinite(v)) return null;
+        return inv;
+    }
+
+    /**
+     * Marks (warped = NaN) the template pixels whose local mean moved against the reference's by more than MASK_K
+     * robust standard deviations of that change over the template: heat spreading from a part shifts the local mean
+     * by far more than noise or a sub-pixel misalignment does, and near such a blob the band-passed picture is
+     * changed in a way that pulls the alignment.
+     */
+    private void maskChanged(int n) {
+        int m = 0;
+        for (int i = 0; i < n; i++) if (warped[i] == warped[i]) abs[m++] = change[i];
+        double med = select(abs, m, m / 2);
+        m = 0;
+        for (int i = 0; i < n; i++) if (warped[i] == warped[i]) abs[m++] = (float) Math.abs(change[i] - med);
+        double s = 1.4826 * select(abs, m, m / 2);
+        if (!(s > 0)) return;
+        double lim = MASK_K * s;
+        for (int i = 0; i < n; i++)
+            if (warped[i] == warped[i] && Math.abs(change[i] - med) > lim) warped[i] = Float.NaN;
     }
 
     /** Tukey's biweight (0 beyond k) or Huber's weight (1 within k, k / |e| beyond) of residual e. */

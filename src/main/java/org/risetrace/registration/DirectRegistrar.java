@@ -34,6 +34,22 @@ final class DirectRegistrar implements Registrar {
         boolean lastChained;
         /** Frames graded ok through the current link (it is renewed after MAX_LINK_USES). */
         int linkUses;
+        /** Uncertainty of lastGood's mapping, and of the current link's earlier frame. */
+        MappingUncertainty lastGoodUncertainty = MappingUncertainty.NONE, chainBaseUncertainty = MappingUncertainty.NONE;
+        /** Uncertainty of the last result on this thread (diagnostics and calibration). */
+        MappingUncertainty lastUncertainty = MappingUncertainty.NONE;
+    }
+
+    /** The grade of a board-to-frame mapping against this registrar's own reference (diagnostics). */
+    Grade gradeAgainstReference(Frame frame, Homography boardToFrame) {
+        Pyramid p = new Pyramid();
+        p.build(frame.celsius(), frame.width(), frame.height(), ref.levels);
+        return evaluate(p, boardToFrame.compose(ref.boardToReference.inverse()).normalized(), true);
+    }
+
+    /** The uncertainty parts of the last frame registered on the calling thread (calibration, tests). */
+    MappingUncertainty lastUncertainty() {
+        return workspace.get().lastUncertainty;
     }
 
     /** Whether frames that no longer match the reference may be registered through the last ok frame. */
@@ -41,7 +57,12 @@ final class DirectRegistrar implements Registrar {
 
     /** Quality of one candidate mapping (reference to frame). */
     record Grade(Homography refToFrame, RegistrationStatus status, String reason, double similarity, double rmsPx,
-                 int inliers) {
+                 int inliers, MappingUncertainty uncertainty) {
+        Grade(Homography refToFrame, RegistrationStatus status, String reason, double similarity, double rmsPx,
+              int inliers) {
+            this(refToFrame, status, reason, similarity, rmsPx, inliers, MappingUncertainty.NONE);
+        }
+
         int rank() { return status == RegistrationStatus.OK ? 2 : status == RegistrationStatus.WEAK ? 1 : 0; }
 
         boolean betterThan(Grade o) {
@@ -49,12 +70,19 @@ final class DirectRegistrar implements Registrar {
         }
     }
 
-    /** An ok mapping needs at least this many agreeing check patches (fewer is too little evidence). */
-    static final int MIN_AGREEING_PATCHES_OK = 6;
+    /**
+     * An ok mapping needs at least this many agreeing check patches: four patches over-determine the similarity
+     * whose correction enters the corner error estimate (8 shifts, 4 parameters). The grade itself follows the
+     * estimated corner error: a board at ambient has little texture, and a count of textured patches says how much
+     * texture there is, not how good the mapping is.
+     */
+    static final int MIN_AGREEING_PATCHES_OK = 4;
+    /** Estimated corner error (px, {@link MappingUncertainty#cornerSigmaPx()}) up to which a mapping is ok. */
+    static final double OK_SIGMA_PX = 0.35;
+    /** Estimated corner error beyond which the mapping is refused (failed). */
+    static final double FAIL_SIGMA_PX = 1.5;
     /** Coarse-search candidates refined (more changed nothing on simulated series). */
     static final int CANDIDATES = 2;
-    /** An ok mapping's check patches may imply at most this correction at a board corner (affine fit, px). */
-    static final double MAX_CORNER_CORRECTION_OK_PX = 0.75;
 
     DirectRegistrar(ReferenceModel ref, RegistrationConfig config) {
         this(ref, config, true);
@@ -248,7 +276,7 @@ final class DirectRegistrar implements Registrar {
         ws.aligner.model = model;
         Homography h = ws.aligner.align(ref, ws.pyramid, start, fromLevel);
         if (h == null) return null;
-        return evaluate(ws.pyramid, h, ws.aligner.converged);
+        return evaluate(ws.pyramid, h, ws.aligner.converged, ws.aligner.cornerVariance(ref, ws.pyramid, h, model));
     }
 
     /**
@@ -278,6 +306,7 @@ final class DirectRegistrar implements Registrar {
             return r;
         }
         ws.chainName = name;
+        ws.chainBaseUncertainty = ws.lastGoodUncertainty;
         ws.linkUses = 0;
         // the new link starts from this thread's last estimate carried over to its reference
         if (ws.previous != null)
@@ -317,8 +346,37 @@ final class DirectRegistrar implements Registrar {
         return r.status() == RegistrationStatus.OK ? 2 : r.status() == RegistrationStatus.WEAK ? 1 : 0;
     }
 
+    /**
+     * A frame graded ok through a chain link is aligned once more directly to the reference, started from the
+     * composed mapping, with the pixels where heat changed the picture left out ({@link DirectAligner}): composing
+     * link after link lets small errors add up (on simulated 40-frame series with heating, ok frames drifted to
+     * 2.3 px after ten links), while the start is close enough for the direct refinement to hold. The link's own
+     * checks (against a frame that shares the heating) stay the consistency check; the corner error estimate is the
+     * direct alignment's. The composed mapping is kept when the direct one fails.
+     */
     private FrameRegistration rememberChained(Workspace ws, Frame frame, FrameRegistration chained) {
+        clipTop(ws);
+        Homography composed = chained.boardToFrame().compose(ref.boardToReference.inverse()).normalized();
+        ws.aligner.robustFromStart = true;
+        Grade d = alignAndGrade(ws, composed, 0, 4);
+        ws.aligner.robustFromStart = false;
+        if (d != null && d.status() != RegistrationStatus.FAILED) {
+            Homography b2f = d.refToFrame().compose(ref.boardToReference).normalized();
+            ws.lastUncertainty = d.uncertainty();
+            chained = new FrameRegistration(chained.file(), chained.tSeconds(), chained.status(), chained.reason(),
+                    b2f, Homographies.boardCorners(ref.board, b2f), d.inliers(), d.rmsPx(), d.similarity(),
+                    d.uncertainty().cornerSigmaPx());
+        }
+        double sigma = chained.cornerSigmaPx();
+        if (sigma > OK_SIGMA_PX) // the link agreed, but the mapping is not known well enough for ok
+            return new FrameRegistration(chained.file(), chained.tSeconds(),
+                    sigma > FAIL_SIGMA_PX ? RegistrationStatus.FAILED : RegistrationStatus.WEAK,
+                    chained.reason() + String.format(Locale.ROOT, "; estimated corner error %.2f px", sigma),
+                    sigma > FAIL_SIGMA_PX ? null : chained.boardToFrame(),
+                    sigma > FAIL_SIGMA_PX ? null : chained.boardCornersPx(), chained.inliers(), chained.rmsPx(),
+                    chained.similarity(), sigma);
         remember(ws, frame, chained.boardToFrame().compose(ref.boardToReference.inverse()));
+        ws.lastGoodUncertainty = ws.lastUncertainty;
         ws.lastChained = true;
         ws.linkUses++;
         return chained;
@@ -327,8 +385,18 @@ final class DirectRegistrar implements Registrar {
     /** A link's result with the link named in its reason (the evidence says how each frame was mapped). */
     private static FrameRegistration linked(Workspace ws, FrameRegistration r) {
         String via = "through " + ws.chainName + " (an earlier ok frame: heating changed the picture)";
-        return new FrameRegistration(r.file(), r.tSeconds(), r.status(), r.reason() == null ? via : via + "; " + r.reason(),
-                r.boardToFrame(), r.boardCornersPx(), r.inliers(), r.rmsPx(), r.similarity());
+        MappingUncertainty u = ws.chain.workspace.get().lastUncertainty.after(ws.chainBaseUncertainty);
+        ws.lastUncertainty = u;
+        double sigma = r.boardToFrame() == null ? Double.NaN : u.cornerSigmaPx();
+        RegistrationStatus status = r.status();
+        String reason = r.reason() == null ? via : via + "; " + r.reason();
+        if (status == RegistrationStatus.OK && sigma > OK_SIGMA_PX) {
+            // both mappings' errors add: the link alone may be ok while the composed mapping is not
+            status = RegistrationStatus.WEAK;
+            reason += String.format(Locale.ROOT, "; estimated corner error %.2f px", sigma);
+        }
+        return new FrameRegistration(r.file(), r.tSeconds(), status, reason, r.boardToFrame(), r.boardCornersPx(),
+                r.inliers(), r.rmsPx(), r.similarity(), sigma);
     }
 
     private void remember(Workspace ws, Frame frame, Homography refToFrame) {
@@ -338,26 +406,33 @@ final class DirectRegistrar implements Registrar {
     }
 
     private FrameRegistration finish(Frame frame, Workspace ws, Grade g) {
+        ws.lastUncertainty = g.uncertainty();
         if (g.status() == RegistrationStatus.FAILED)
             return new FrameRegistration(frame.fileName(), frame.tSeconds(), RegistrationStatus.FAILED, g.reason(),
                     null, null, g.inliers(), g.rmsPx(), g.similarity());
         ws.previous = g.refToFrame();
         if (g.status() == RegistrationStatus.OK) {
             remember(ws, frame, g.refToFrame());
+            ws.lastGoodUncertainty = g.uncertainty();
             ws.lastChained = false;
         }
         Homography boardToFrame = g.refToFrame().compose(ref.boardToReference).normalized();
         return new FrameRegistration(frame.fileName(), frame.tSeconds(), g.status(), g.reason(), boardToFrame,
-                Homographies.boardCorners(ref.board, boardToFrame), g.inliers(), g.rmsPx(), g.similarity());
+                Homographies.boardCorners(ref.board, boardToFrame), g.inliers(), g.rmsPx(), g.similarity(),
+                g.uncertainty().cornerSigmaPx());
     }
 
     private FrameRegistration markedResult(Frame frame, double[][] corners, String why) {
         Homography h = Homographies.boardToFrame(ref.board, corners);
+        workspace.get().lastUncertainty = MappingUncertainty.NONE;
+        // marked corners are the board's definition: no registration error (the marking's own error is common to
+        // every frame and belongs to the outline, not to the mapping)
         return new FrameRegistration(frame.fileName(), frame.tSeconds(), RegistrationStatus.MARKED, why, h,
-                Homographies.boardCorners(ref.board, h), 0, Double.NaN, Double.NaN);
+                Homographies.boardCorners(ref.board, h), 0, Double.NaN, Double.NaN, 0.0);
     }
 
-    private static FrameRegistration failed(Frame frame, String reason) {
+    private FrameRegistration failed(Frame frame, String reason) {
+        workspace.get().lastUncertainty = MappingUncertainty.NONE;
         return new FrameRegistration(frame.fileName(), frame.tSeconds(), RegistrationStatus.FAILED, reason, null, null,
                 0, Double.NaN, Double.NaN);
     }
@@ -419,6 +494,11 @@ final class DirectRegistrar implements Registrar {
      * shift stays under 1 px. rms_px is the RMS residual shift of the agreeing patches, inliers their number.
      */
     Grade evaluate(Pyramid frame, Homography h, boolean converged) {
+        return evaluate(frame, h, converged, new DirectAligner().cornerVariance(ref, frame, h, 8));
+    }
+
+    /** @param alignVariance the alignment's own corner variance ({@link DirectAligner#cornerVariance}), px^2 */
+    Grade evaluate(Pyramid frame, Homography h, boolean converged, double alignVariance) {
         String implausible = plausibility(h);
         if (implausible != null) return new Grade(h, RegistrationStatus.FAILED, implausible, Double.NaN, Double.NaN, 0);
         float[] img = frame.bandPass[0];
@@ -471,7 +551,8 @@ final class DirectRegistrar implements Registrar {
             }
         }
         double rms = agree > 0 ? Math.sqrt(sum2 / agree) : Double.NaN;
-        double cornerPx = cornerCorrectionPx(pts, agree, ref.referenceCornersPx);
+        double[] patchStats = patchCornerStats(pts, agree, ref.referenceCornersPx);
+        MappingUncertainty unc = MappingUncertainty.direct(alignVariance, patchStats[0], patchStats[1], zoom(h));
         double fraction = checked > 0 ? agree / (double) checked : 0;
         StringBuilder weak = new StringBuilder();
         String fail = null;
@@ -484,7 +565,12 @@ final class DirectRegistrar implements Registrar {
             fail = String.format(Locale.ROOT, "only %d of %d check patches agree with the mapping", agree, checked);
         else if (rms > config.failRmsPx())
             fail = String.format(Locale.ROOT, "check patches disagree by %.2f px RMS", rms);
-        if (fail != null) return new Grade(h, RegistrationStatus.FAILED, fail, similarity, rms, agree);
+        double cornerSigma = unc.cornerSigmaPx();
+        if (fail == null && cornerSigma > FAIL_SIGMA_PX)
+            fail = String.format(Locale.ROOT, "estimated corner error %.2f px", cornerSigma);
+        if (fail != null) return new Grade(h, RegistrationStatus.FAILED, fail, similarity, rms, agree, unc);
+        if (cornerSigma > OK_SIGMA_PX)
+            weak.append(String.format(Locale.ROOT, "estimated corner error %.2f px; ", cornerSigma));
         if (similarity < config.okSimilarity())
             weak.append(String.format(Locale.ROOT, "image similarity %.2f below %.2f; ", similarity, config.okSimilarity()));
         if (checked < 3) weak.append("too few textured patches to check the mapping; ");
@@ -492,9 +578,6 @@ final class DirectRegistrar implements Registrar {
             weak.append(String.format(Locale.ROOT, "only %d check patches agree; ", agree));
         else if (fraction < config.okInlierFraction())
             weak.append(String.format(Locale.ROOT, "%d of %d check patches agree; ", agree, checked));
-        if (agree >= MIN_AGREEING_PATCHES_OK && !(cornerPx <= MAX_CORNER_CORRECTION_OK_PX))
-            weak.append(Double.isNaN(cornerPx) ? "check patches do not span the board; "
-                    : String.format(Locale.ROOT, "check patches imply %.2f px at a board corner; ", cornerPx));
         if (rms > config.okRmsPx()) weak.append(String.format(Locale.ROOT, "check patches disagree by %.2f px RMS; ", rms));
         if (changed > 0.25)
             weak.append(String.format(Locale.ROOT, "%.0f %% of the board differs from the reference; ", 100 * changed));
@@ -502,9 +585,9 @@ final class DirectRegistrar implements Registrar {
         if (!converged) weak.append("refinement did not settle; ");
         if (weak.length() > 0) {
             weak.setLength(weak.length() - 2);
-            return new Grade(h, RegistrationStatus.WEAK, weak.toString(), similarity, rms, agree);
+            return new Grade(h, RegistrationStatus.WEAK, weak.toString(), similarity, rms, agree, unc);
         }
-        return new Grade(h, RegistrationStatus.OK, null, similarity, rms, agree);
+        return new Grade(h, RegistrationStatus.OK, null, similarity, rms, agree, unc);
     }
 
     /**
@@ -553,6 +636,54 @@ final class DirectRegistrar implements Registrar {
      * extrapolated patch noise to about 1 px at the corners of frames that were 0.05 px off. NaN when fewer than
      * three patches agree or they all sit at one point.
      */
+    /**
+     * The similarity correction fitted to the agreeing patches' residual shifts (as {@link #cornerCorrectionPx}),
+     * evaluated at the corners: {mean squared displacement, mean variance of that displacement from the fit's
+     * residuals (s^2 (A^T A)^-1 propagated, 2n - 4 degrees of freedom)}; NaN where too few patches.
+     */
+    static double[] patchCornerStats(double[] pts, int n, double[][] corners) {
+        if (n < 3) return new double[]{Double.NaN, Double.NaN};
+        double mx = 0, my = 0, tx = 0, ty = 0;
+        for (int i = 0; i < n; i++) {
+            mx += pts[4 * i] / n; my += pts[4 * i + 1] / n; tx += pts[4 * i + 2] / n; ty += pts[4 * i + 3] / n;
+        }
+        double sa = 0, sb = 0, sr = 0;
+        for (int i = 0; i < n; i++) {
+            double x = pts[4 * i] - mx, y = pts[4 * i + 1] - my, dx = pts[4 * i + 2] - tx, dy = pts[4 * i + 3] - ty;
+            sa += x * dx + y * dy;
+            sb += x * dy - y * dx;
+            sr += x * x + y * y;
+        }
+        if (!(sr > 1e-9)) return new double[]{Double.NaN, Double.NaN};
+        double a = sa / sr, b = sb / sr, rss = 0;
+        for (int i = 0; i < n; i++) {
+            double x = pts[4 * i] - mx, y = pts[4 * i + 1] - my;
+            double ex = pts[4 * i + 2] - (a * x - b * y + tx), ey = pts[4 * i + 3] - (b * x + a * y + ty);
+            rss += ex * ex + ey * ey;
+        }
+        double bias2 = 0, noise = 0;
+        // with centred coordinates the four parameters are uncorrelated: var(tx) = var(ty) = s^2 / n,
+        // var(a) = var(b) = s^2 / sr
+        double s2 = 2 * n > 4 ? rss / (2 * n - 4) : Double.NaN;
+        for (double[] c : corners) {
+            double x = c[0] - mx, y = c[1] - my;
+            double ux = a * x - b * y + tx, uy = b * x + a * y + ty;
+            bias2 += (ux * ux + uy * uy) / corners.length;
+            noise += s2 * (2.0 / n + 2 * (x * x + y * y) / sr) / corners.length;
+        }
+        return new double[]{bias2, n >= 5 ? noise : Double.NaN};
+    }
+
+    /** Frame pixels per reference pixel at the reference's board centre (square root of the Jacobian determinant). */
+    private double zoom(Homography h) {
+        double[][] c = ref.referenceCornersPx;
+        double cx = 0, cy = 0;
+        for (double[] p : c) { cx += p[0] / 4; cy += p[1] / 4; }
+        double[] a = h.apply(cx - 1, cy), b = h.apply(cx + 1, cy), d = h.apply(cx, cy - 1), e = h.apply(cx, cy + 1);
+        double jxx = (b[0] - a[0]) / 2, jyx = (b[1] - a[1]) / 2, jxy = (e[0] - d[0]) / 2, jyy = (e[1] - d[1]) / 2;
+        return Math.sqrt(Math.abs(jxx * jyy - jxy * jyx));
+    }
+
     static double cornerCorrectionPx(double[] pts, int n, double[][] corners) {
         if (n < 3) return Double.NaN;
         double mx = 0, my = 0, tx = 0, ty = 0;

@@ -13,6 +13,8 @@ final class Pyramid {
     int levels;
     int[] widths = new int[0], heights = new int[0];
     float[][] bandPass = new float[0][];
+    /** The local mean that the band-pass removed (smoothed minus band-passed): where heat shows, not texture. */
+    float[][] lowPass = new float[0][];
     private float[][] smooth = new float[0][];
     private float[] filled = new float[0], t1 = new float[0], t2 = new float[0];
 
@@ -39,6 +41,8 @@ final class Pyramid {
         for (int l = 0; l < levels; l++) {
             if (l > 0) Filters.halve(smooth[l - 1], widths[l - 1], heights[l - 1], smooth[l], widths[l], heights[l]);
             Filters.highPass(smooth[l], bandPass[l], t1, t2, widths[l], heights[l], HIGH_PASS_RADIUS);
+            float[] s = smooth[l], b = bandPass[l], lp = lowPass[l];
+            for (int i = 0; i < lp.length; i++) lp[i] = s[i] - b[i];
         }
         return mean;
     }
@@ -48,11 +52,13 @@ final class Pyramid {
         widths = new int[n];
         heights = new int[n];
         bandPass = new float[n][];
+        lowPass = new float[n][];
         smooth = new float[n][];
         for (int l = 0; l < n; l++) {
             widths[l] = l == 0 ? w : Math.max(1, widths[l - 1] / 2);
             heights[l] = l == 0 ? h : Math.max(1, heights[l - 1] / 2);
             bandPass[l] = new float[widths[l] * heights[l]];
+            lowPass[l] = new float[widths[l] * heights[l]];
             smooth[l] = new float[widths[l] * heights[l]];
         }
         filled = new float[w * h];

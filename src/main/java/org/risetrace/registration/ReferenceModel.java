@@ -52,12 +52,14 @@ final class ReferenceModel {
     static final class Level {
         final int w, h, n;
         final float[] x, y, t, sd;
+        /** The reference's low-pass (local mean) at each template pixel, to tell pixels where heat changed the frame. */
+        final float[] low;
         /** The steepest-descent images reduced to a similarity (4 per pixel: sd0 + sd3, sd1 - sd2, sd4, sd5). */
         final float[] sd4;
         final double cx, cy, sc;
 
-        Level(int w, int h, float[] x, float[] y, float[] t, float[] sd, double cx, double cy, double sc) {
-            this.w = w; this.h = h; this.n = x.length; this.x = x; this.y = y; this.t = t; this.sd = sd;
+        Level(int w, int h, float[] x, float[] y, float[] t, float[] sd, float[] low, double cx, double cy, double sc) {
+            this.w = w; this.h = h; this.n = x.length; this.x = x; this.y = y; this.t = t; this.sd = sd; this.low = low;
             this.cx = cx; this.cy = cy; this.sc = sc;
             this.sd4 = new float[4 * n];
             for (int i = 0; i < n; i++) {
@@ -182,7 +184,8 @@ final class ReferenceModel {
         float thr = n == 0 ? 0 : DirectAligner.select(Arrays.copyOf(gm, n), n, Math.max(0, n - keep));
         int m = 0;
         for (int k = 0; k < n; k++) if (gm[k] >= thr && m < keep) m++;
-        float[] xs = new float[m], ys = new float[m], ts = new float[m], sd = new float[8 * m];
+        float[] xs = new float[m], ys = new float[m], ts = new float[m], sd = new float[8 * m], low = new float[m];
+        float[] lp = pyramid.lowPass[l];
         double cx = (w - 1) / 2.0, cy = (h - 1) / 2.0, sc = Math.max(w, h) / 2.0;
         int j = 0;
         for (int k = 0; k < n && j < m; k++) {
@@ -190,7 +193,7 @@ final class ReferenceModel {
             int i = idx[k];
             int x = i % w, y = i / w;
             float gx = 0.5f * (img[i + 1] - img[i - 1]), gy = 0.5f * (img[i + w] - img[i - w]);
-            xs[j] = x; ys[j] = y; ts[j] = img[i];
+            xs[j] = x; ys[j] = y; ts[j] = img[i]; low[j] = lp[i];
             double xn = (x - cx) / sc, yn = (y - cy) / sc;
             double gxs = gx * sc, gys = gy * sc, r = gxs * xn + gys * yn;
             int o = 8 * j;
@@ -201,7 +204,7 @@ final class ReferenceModel {
             sd[o + 6] = (float) (-xn * r); sd[o + 7] = (float) (-yn * r);
             j++;
         }
-        return new Level(w, h, xs, ys, ts, sd, cx, cy, sc);
+        return new Level(w, h, xs, ys, ts, sd, low, cx, cy, sc);
     }
 
     private List<Patch> selectPatches() {

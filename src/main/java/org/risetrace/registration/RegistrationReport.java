@@ -19,10 +19,13 @@ public record RegistrationReport(@JsonProperty("reference") String reference,
                                  @JsonProperty("frames") List<Entry> frames,
                                  @JsonProperty("summary") Summary summary) {
 
-    /** One frame; quality figures are null where not measured; homography maps board mm to frame px. */
+    /**
+     * One frame; quality figures are null where not measured; homography maps board mm to frame px;
+     * corner_sigma_px is the estimated RMS error of the four board corners (px).
+     */
     @JsonInclude(JsonInclude.Include.NON_NULL)
-    @JsonPropertyOrder({"file", "t_s", "status", "reason", "rms_px", "inliers", "similarity", "homography",
-            "board_corners_px"})
+    @JsonPropertyOrder({"file", "t_s", "status", "reason", "corner_sigma_px", "rms_px", "inliers", "similarity",
+            "homography", "board_corners_px"})
     public record Entry(@JsonProperty("file") String file,
                         @JsonProperty("t_s") double tSeconds,
                         @JsonProperty("status") RegistrationStatus status,
@@ -31,11 +34,12 @@ public record RegistrationReport(@JsonProperty("reference") String reference,
                         @JsonProperty("inliers") int inliers,
                         @JsonProperty("similarity") Double similarity,
                         @JsonProperty("homography") Homography homography,
-                        @JsonProperty("board_corners_px") double[][] boardCornersPx) {
+                        @JsonProperty("board_corners_px") double[][] boardCornersPx,
+                        @JsonProperty("corner_sigma_px") Double cornerSigmaPx) {
 
         public static Entry of(FrameRegistration r) {
             return new Entry(r.file(), r.tSeconds(), r.status(), r.reason(), finiteOrNull(r.rmsPx()), r.inliers(),
-                    finiteOrNull(r.similarity()), r.boardToFrame(), r.boardCornersPx());
+                    finiteOrNull(r.similarity()), r.boardToFrame(), r.boardCornersPx(), finiteOrNull(r.cornerSigmaPx()));
         }
     }
 

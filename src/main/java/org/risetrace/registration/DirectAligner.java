@@ -10,9 +10,13 @@ final class DirectAligner {
     /** Medians of residuals are taken over a regular subsample of about this many pixels. */
     static final int MEDIAN_SAMPLES = 1000;
     private float[] warped = new float[0], err = new float[0], abs = new float[0], change = new float[0];
-    /** Leave out template pixels whose local mean changed against the reference's (heat, not texture). */
-    static boolean MASK_CHANGED = true;
-    static double MASK_K = 4.0;
+    /**
+     * Leave out template pixels whose local mean changed against the reference's by more than MASK_K robust
+     * standard deviations (heat, not texture). On simulated 40-frame heated series, with chain links re-anchored,
+     * ok frames were at most 0.73 px off with the mask and 1.97 px without; MASK_K 3 did no better than 4.
+     */
+    static final boolean MASK_CHANGED = true;
+    static final double MASK_K = 4.0;
     /** True when the last level's final step moved no corner of the image by more than the tolerance. */
     boolean converged;
     int iterations;

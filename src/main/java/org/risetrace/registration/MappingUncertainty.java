@@ -26,7 +26,7 @@ record MappingUncertainty(double alignVariance, double patchBias2, double patchN
      * every composed mapping adds FLOOR_PX^2 (interpolation and the band-pass's response to heating, which neither
      * term sees).
      */
-    static double ALIGN_FACTOR = 10.0, PATCH_FACTOR = 0.2, FLOOR_PX = 0.0;
+    static final double ALIGN_FACTOR = 2.0, PATCH_FACTOR = 0.5, FLOOR_PX = 0.0;
 
     /** One direct mapping; reference-pixel variances scaled by zoom^2 into frame pixels. */
     static MappingUncertainty direct(double alignVarianceRefPx2, double patchBias2RefPx2, double patchNoiseRefPx2,

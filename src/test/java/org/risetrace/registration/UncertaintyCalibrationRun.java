@@ -95,6 +95,21 @@ final class UncertaintyCalibrationRun {
         return rows;
     }
 
+    /** The second generator's series (test scope, {@link org.risetrace.synth.SpotSeries}), random configurations. */
+    static List<Row> spot(Path dir, org.risetrace.synth.SpotSeries.MotionKind motion,
+                          org.risetrace.synth.SpotSeries.Encoding encoding, long seedBase, int count) {
+        List<Row> rows = new ArrayList<>();
+        for (int s = 0; s < count; s++) {
+            long seed = seedBase + s;
+            org.risetrace.synth.SpotSeries.Output out = org.risetrace.synth.SpotSeries.generate(
+                    org.risetrace.synth.SpotSeries.random(seed, org.risetrace.synth.SpotSeries.HeatingMode.LEADER,
+                            motion, encoding), dir.resolve("spot-" + motion + "-" + encoding + "-" + seed));
+            rows.addAll(register("spot-" + encoding.profile, motion == org.risetrace.synth.SpotSeries.MotionKind.STAND
+                    ? "stand" : "handheld", seed, out.directory(), out.boardFile(), List.of(out.boardCornersPx())));
+        }
+        return rows;
+    }
+
     static void write(List<Row> rows, Path file) throws IOException {
         try (PrintWriter w = new PrintWriter(Files.newBufferedWriter(file))) {
             w.println("generator\tmotion\tseed\tfile\tstatus\ttrue_rms_px\tsigma_px\talign_var\tpatch_bias2\tpatch_noise\tmappings\trms_px\tinliers\tsimilarity\tref_bias2\tref_inliers\tref_status\treason");
@@ -105,15 +120,18 @@ final class UncertaintyCalibrationRun {
     /** Writes the rows of our simulator's series to args[0] (args[1]: series per motion, args[2]: frames). */
     public static void main(String[] args) throws IOException {
         Path out = Path.of(args[0]);
-        DirectAligner.MASK_CHANGED = !Boolean.getBoolean("nomask");
 
 
-        DirectAligner.MASK_K = Double.parseDouble(System.getProperty("maskk", "4"));
         int count = args.length > 1 ? Integer.parseInt(args[1]) : 12, frames = args.length > 2 ? Integer.parseInt(args[2]) : 40;
         Path dir = Files.createTempDirectory("calib");
         List<Row> rows = new ArrayList<>();
-        rows.addAll(simulator(dir, Scenario.Motion.stand(0.15), 41000, count, frames));
-        rows.addAll(simulator(dir, Scenario.Motion.handheld(5, 0.10, 0.15), 42000, count, frames));
+        if (!Boolean.getBoolean("spotonly")) {
+            rows.addAll(simulator(dir, Scenario.Motion.stand(0.15), 41000, count, frames));
+            rows.addAll(simulator(dir, Scenario.Motion.handheld(5, 0.10, 0.15), 42000, count, frames));
+        }
+        for (org.risetrace.synth.SpotSeries.MotionKind m : org.risetrace.synth.SpotSeries.MotionKind.values())
+            for (org.risetrace.synth.SpotSeries.Encoding e : org.risetrace.synth.SpotSeries.Encoding.values())
+                rows.addAll(spot(dir, m, e, 43000 + 100L * m.ordinal() + 1000L * e.ordinal(), count / 2));
         write(rows, out);
         System.out.println(rows.size() + " frames written to " + out);
     }

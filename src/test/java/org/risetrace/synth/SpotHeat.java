@@ -90,7 +90,7 @@ final class SpotHeat {
         double tau2 = two ? 60 + 240 * rnd.nextDouble() : tau1;
         double fast = two ? 0.4 + 0.4 * rnd.nextDouble() : 1.0;
         double spot = 0.3 + 0.3 * rnd.nextDouble();
-        double diffusivity = 0.5 + 2.5 * rnd.nextDouble();
+        double diffusivity = 0.2 + 1.3 * rnd.nextDouble();
         double drift = c.ambientDriftK() * (2 * rnd.nextDouble() - 1);
         boolean ramp = rnd.nextBoolean();
         double beta = 0.02 + 0.04 * rnd.nextDouble();

@@ -147,6 +147,12 @@ public final class SpotSeries {
 
         public Config withLidChance(double p) { return new Config(seed, widthPx, heightPx, frames, intervalS, injectionStartS, motion, encoding, netdK, parts, heating, opticsSigmaPx, flickerK, ambientDriftK, p); }
 
+        /**
+         * The noise-free twin: the same board, heat, pose and motion (each drawn from its own stream of the seed), no
+         * fixed pattern, temporal noise or flicker; its frames are what the camera would see without noise.
+         */
+        public Config noiseFree() { return withNoise(0, 0); }
+
         public Config withSeed(long s) { return new Config(s, widthPx, heightPx, frames, intervalS, injectionStartS, motion, encoding, netdK, parts, heating, opticsSigmaPx, flickerK, ambientDriftK, lidChance); }
     }
 

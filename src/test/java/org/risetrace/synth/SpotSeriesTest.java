@@ -156,13 +156,15 @@ class SpotSeriesTest {
                     double[] span = s.spanC(k);
                     assertNotNull(span, "8-bit frames carry their span");
                     limit = (span[1] - span[0]) / 510;
-                    for (float v : truth) assertTrue(v >= span[0] && v <= span[1], "span holds the frame");
+                    for (float v : truth)
+                        if (!(v >= span[0] && v <= span[1])) throw new AssertionError("span " + span[0] + ".." + span[1] + " misses " + v);
                 }
                 for (int i = 0; i < truth.length; i++) {
                     double e = Math.abs(truth[i] - read[i]);
                     worst = Math.max(worst, e / limit);
                     // 1e-5 K: float rounding of the decoded value
-                    assertTrue(e <= limit + 1e-5, enc + " frame " + k + " pixel " + i + ": " + e + " K, limit " + limit);
+                    if (e > limit + 1e-5)
+                        throw new AssertionError(enc + " frame " + k + " pixel " + i + ": " + e + " K, limit " + limit);
                 }
             }
             System.out.printf(Locale.ROOT, "spot model %s round trip: worst %.3f of the half step%n", enc.profile, worst);
@@ -242,6 +244,35 @@ class SpotSeriesTest {
         assertEquals(12, a.size(), a.keySet().toString());
         assertEquals(a, b);
         assertNotEquals(a.get("f0005.png"), other.get("f0005.png"));
+    }
+
+    /**
+     * The noise-free twin has the same mappings and rates, and differs from the noisy series only by zero-mean
+     * noise: per frame the difference has a mean within 5 standard errors of zero (plus 4 sigma of flicker)
+     * and a standard deviation between NETD (temporal noise alone) and 2.1 NETD (with the fixed pattern of at most
+     * 1.5 NETD per pixel and 0.75 NETD per column, by construction).
+     */
+    @Test
+    void noiseFreeTwinDiffersOnlyByTheNoise() {
+        Config c = SpotSeries.random(55, HeatingMode.LEADER, MotionKind.HANDHELD, Encoding.U16_CENTIKELVIN);
+        SpotSeries noisy = new SpotSeries(c), clean = new SpotSeries(c.noiseFree());
+        assertEquals(noisy.initialRates(), clean.initialRates());
+        for (int k : new int[]{0, 20, 39}) {
+            for (int r = 0; r < 3; r++)
+                assertTrue(java.util.Arrays.equals(noisy.boardToFrameRows(k)[r], clean.boardToFrameRows(k)[r]));
+            float[] a = noisy.renderFrame(k), b = clean.renderFrame(k);
+            double sum = 0, sum2 = 0;
+            for (int i = 0; i < a.length; i++) {
+                double d = a[i] - b[i];
+                sum += d;
+                sum2 += d * d;
+            }
+            double mean = sum / a.length, sd = Math.sqrt(sum2 / a.length - mean * mean);
+            // 5 standard errors: pixel noise over all pixels and the column offsets (sd <= 0.75 NETD) over the columns
+            double se = Math.sqrt(sd * sd / a.length + Math.pow(0.75 * c.netdK(), 2) / c.widthPx());
+            assertTrue(Math.abs(mean) < 5 * se + 4 * c.flickerK(), "frame " + k + " mean " + mean);
+            assertTrue(sd >= 0.97 * c.netdK() && sd <= 2.1 * c.netdK(), "frame " + k + " sd " + sd + " netd " + c.netdK());
+        }
     }
 
     /** Mean distance of the four corners (px). */

@@ -83,7 +83,9 @@ final class SpotHeat {
      * Draws the curve shape and the rates of {@code parts} parts for a heating mode; {@code heated} receives the
      * indices of the leading part(s) in order (empty for no heating).
      */
-    static SpotHeat draw(SplittableRandom rnd, SpotSeries.Config c, int parts, List<Integer> heated) {
+    static SpotHeat draw(SplittableRandom rnd, SpotSeries.Config c, List<SpotBoard.PartLayout> layout,
+                         List<Integer> heated) {
+        int parts = layout.size();
         double end = (c.frames() - 1) * c.intervalS();
         double tau1 = 6 + 34 * rnd.nextDouble();
         boolean two = rnd.nextBoolean();
@@ -96,8 +98,22 @@ final class SpotHeat {
         double beta = 0.02 + 0.04 * rnd.nextDouble();
         double[] total = new double[parts];
         SpotSeries.Heating h = c.heating();
-        int first = rnd.nextInt(parts);
-        int second = (first + 1 + rnd.nextInt(parts - 1)) % parts;
+        List<Integer> eligible = new java.util.ArrayList<>();
+        int largest = 0;
+        for (int p = 0; p < parts; p++) {
+            SpotBoard.PartLayout l = layout.get(p);
+            if (Math.min(l.wMm(), l.hMm()) >= h.leaderMinSideMm()) eligible.add(p);
+            SpotBoard.PartLayout big = layout.get(largest);
+            if (l.wMm() * l.hMm() > big.wMm() * big.hMm()) largest = p;
+        }
+        int first = eligible.isEmpty() ? largest : eligible.get(rnd.nextInt(eligible.size()));
+        int second;
+        if (h.mode() == SpotSeries.HeatingMode.TWO_ALIKE && eligible.size() > 1) {
+            eligible.remove((Integer) first);
+            second = eligible.get(rnd.nextInt(eligible.size()));
+        } else {
+            second = (first + 1 + rnd.nextInt(parts - 1)) % parts;
+        }
         SpotHeat probe = new SpotHeat(c.injectionStartS(), tau1, tau2, fast, new double[parts], 0, spot, diffusivity,
                 drift, ramp, end);
         double board = 0;

@@ -87,21 +87,26 @@ public final class SpotSeries {
      * Heating. LEADER: one part's initial rate is {@code ratio} times the runner-up's (the rest below 0.9 of the
      * runner-up), the leader rising {@code riseK} by the last frame. TWO_ALIKE: two parts with rates in the ratio
      * {@code ratio} (at most 1.1), the first rising {@code riseK}, the rest below 0.4 of the second. NONE: nothing
-     * heats (ratio and riseK ignored).
+     * heats (ratio and riseK ignored). The leading part(s) are drawn among the parts whose shorter side is at least
+     * {@code leaderMinSideMm} (0: any part; the largest part when none qualifies): at 2-3 frame px per mm the
+     * camera sees a fraction of a 2 mm chip's rise through blur and its shiny end caps.
      */
-    public record Heating(HeatingMode mode, double ratio, double riseK) {
+    public record Heating(HeatingMode mode, double ratio, double riseK, double leaderMinSideMm) {
         public Heating {
             if (mode == null) throw new IllegalArgumentException("heating mode");
             if (mode != HeatingMode.NONE && (!(ratio >= 1) || !(riseK > 0)))
                 throw new IllegalArgumentException("heating needs ratio >= 1 and riseK > 0");
             if (mode == HeatingMode.TWO_ALIKE && ratio > 1.1) throw new IllegalArgumentException("two alike: ratio <= 1.1");
+            if (!(leaderMinSideMm >= 0)) throw new IllegalArgumentException("leaderMinSideMm >= 0");
         }
 
-        public static Heating leader(double ratio, double riseK) { return new Heating(HeatingMode.LEADER, ratio, riseK); }
+        public static Heating leader(double ratio, double riseK) { return new Heating(HeatingMode.LEADER, ratio, riseK, 0); }
 
-        public static Heating twoAlike(double ratio, double riseK) { return new Heating(HeatingMode.TWO_ALIKE, ratio, riseK); }
+        public static Heating twoAlike(double ratio, double riseK) { return new Heating(HeatingMode.TWO_ALIKE, ratio, riseK, 0); }
 
-        public static Heating none() { return new Heating(HeatingMode.NONE, 1, 0); }
+        public static Heating none() { return new Heating(HeatingMode.NONE, 1, 0, 0); }
+
+        public Heating withLeaderMinSideMm(double mm) { return new Heating(mode, ratio, riseK, mm); }
     }
 
     /**
@@ -152,6 +157,8 @@ public final class SpotSeries {
          * fixed pattern, temporal noise or flicker; its frames are what the camera would see without noise.
          */
         public Config noiseFree() { return withNoise(0, 0); }
+
+        public Config withLeaderMinSideMm(double mm) { return withHeating(heating.withLeaderMinSideMm(mm)); }
 
         public Config withSeed(long s) { return new Config(s, widthPx, heightPx, frames, intervalS, injectionStartS, motion, encoding, netdK, parts, heating, opticsSigmaPx, flickerK, ambientDriftK, lidChance); }
     }
@@ -220,7 +227,7 @@ public final class SpotSeries {
         // the picture at 8 px/mm or 3 texels per frame pixel, whichever is finer
         double ppm = Math.max(8, Math.ceil(3 * frameScale));
         board = SpotBoard.draw(boardRnd, size[0], size[1], c.parts(), c.lidChance(), ppm);
-        heat = SpotHeat.draw(heatRnd, c, board.parts.size(), leaderIndices);
+        heat = SpotHeat.draw(heatRnd, c, board.parts, leaderIndices);
         double[][] motion = SpotCamera.motions(camRnd, c.motion(), c.frames(), c.widthPx(), c.heightPx());
         boardToFrame = new double[c.frames()][];
         for (int k = 0; k < c.frames(); k++)

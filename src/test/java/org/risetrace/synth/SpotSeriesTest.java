@@ -209,6 +209,13 @@ class SpotSeriesTest {
                     }
                 }
                 if (mode == HeatingMode.NONE) continue;
+                // leaders drawn among parts with a shorter side of at least 3 mm when asked (some exist on every board)
+                SpotSeries big = new SpotSeries(c.withLeaderMinSideMm(3));
+                boolean anyBig = big.board().parts.stream().anyMatch(q -> Math.min(q.wMm(), q.hMm()) >= 3);
+                assertTrue(anyBig, "seed " + seed + " has a part of 3 mm or more");
+                for (String ref : big.leaders())
+                    for (SpotBoard.PartLayout q : big.board().parts)
+                        if (q.ref().equals(ref)) assertTrue(Math.min(q.wMm(), q.hMm()) >= 3, ref + " " + q);
                 // rendered leader body: a texel deep inside the body (no end cap there for the chosen parts)
                 String ref = leaders.get(0);
                 SpotBoard.PartLayout p = s.board().parts.stream().filter(q -> q.ref().equals(ref)).findFirst().orElseThrow();

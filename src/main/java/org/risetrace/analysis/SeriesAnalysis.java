@@ -145,6 +145,31 @@ public final class SeriesAnalysis {
         return Math.sqrt(early + late);
     }
 
+    /**
+     * The leader's lead measured on the difference of the two rise curves, frame by frame: the leader's rise at its
+     * least favourable emissivity minus the runner-up's at its most favourable, fitted as one curve over the same
+     * rate window, its standard error from that difference's own measured noise (baseline spread or second
+     * differences, AR(1) widening) and the two position errors added in quadrature. In units of that standard
+     * error; null when either rate is missing or the fit is not possible.
+     */
+    Double pairedSeparation(double[] t, PartCurve lead, PartCurve second, Verdicts.Candidate cl, Verdicts.Candidate cs,
+                            double[] wl, double[] ws, double posErrLeadK, double posErrSecondK, double windowS) {
+        if (cl.rateKPerS() == null || cs.rateKPerS() == null || lead.rate() == null || second.rate() == null) return null;
+        double sl = cl.rateKPerS() >= 0 ? Math.min(cl.lowScale(), cl.highScale()) : Math.max(cl.lowScale(), cl.highScale());
+        double ss = cs.rateKPerS() >= 0 ? Math.max(cs.lowScale(), cs.highScale()) : Math.min(cs.lowScale(), cs.highScale());
+        int n = t.length;
+        double[] d = new double[n], w = new double[n];
+        for (int i = 0; i < n; i++) {
+            d[i] = sl * lead.riseK()[i] - ss * second.riseK()[i];
+            w[i] = Math.min(wl[i], ws[i]);
+        }
+        PartCurve diff = PartCurve.measure(t, d, null, w, Math.max(1, baselineUsed), plan.tStartS(), windowS,
+                Math.hypot(sl * posErrLeadK, ss * posErrSecondK), options);
+        LineFit r = diff.rate();
+        if (r == null || !(r.slopeSe() > 0)) return null;
+        return r.slope() / r.slopeSe();
+    }
+
     /** Measures, ranks and decides. */
     public Analysis finish() {
         records.sort(Comparator.comparingDouble(FrameRecord::tS));
@@ -266,7 +291,11 @@ public final class SeriesAnalysis {
         }));
         List<Verdicts.Candidate> ranked = new ArrayList<>();
         for (Integer p : order) ranked.add(candidates.get(p));
-        Verdict verdict = Verdicts.decide(ranked, hotspots, sm.sigma(), weakCount, n, options, "K/s", parts, blurMarginMm);
+        Double paired = np >= 2 ? pairedSeparation(t, curves[order[0]], curves[order[1]], candidates.get(order[0]),
+                candidates.get(order[1]), ws[order[0]], ws[order[1]], positionErrorK[order[0]] * positionSigma,
+                positionErrorK[order[1]] * positionSigma, windowS) : null;
+        Verdict verdict = Verdicts.decide(ranked, hotspots, sm.sigma(), weakCount, n, options, "K/s", parts, blurMarginMm,
+                paired);
 
         List<PartResult> results = new ArrayList<>();
         List<RiseCurve> riseCurves = new ArrayList<>();

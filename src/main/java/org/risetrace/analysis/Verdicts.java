@@ -89,11 +89,26 @@ public final class Verdicts {
      */
     public static Verdict decide(List<Candidate> ranked, List<Hotspot> hotspots, double mapSigma, int weakFrames,
                                  int usedFrames, AnalysisOptions o, String unit, List<Part> parts, double marginMm) {
+        return decide(ranked, hotspots, mapSigma, weakFrames, usedFrames, o, unit, parts, marginMm, null);
+    }
+
+    /**
+     * @param pairedSeparation the lead measured on the two parts' difference (leader at its least favourable
+     *                         emissivity minus runner-up at its most favourable, frame by frame, with the standard
+     *                         error of that difference's rate); null to combine the two rates' standard errors as if
+     *                         independent. Noise common to both parts (a camera's global offset flicker, a change of
+     *                         resolution with the camera's distance) cancels in the difference, so this is the
+     *                         measured noise of the very quantity the rule tests.
+     */
+    public static Verdict decide(List<Candidate> ranked, List<Hotspot> hotspots, double mapSigma, int weakFrames,
+                                 int usedFrames, AnalysisOptions o, String unit, List<Part> parts, double marginMm,
+                                 Double pairedSeparation) {
         double k = o.kSigma();
         Candidate lead = ranked.isEmpty() ? null : ranked.get(0);
         Candidate second = ranked.size() > 1 ? ranked.get(1) : null;
         Double sep = null;
-        if (lead != null && second != null && lead.rateKPerS() != null && second.rateKPerS() != null
+        if (pairedSeparation != null && Double.isFinite(pairedSeparation)) sep = pairedSeparation;
+        else if (lead != null && second != null && lead.rateKPerS() != null && second.rateKPerS() != null
                 && lead.rateSe() != null && second.rateSe() != null) {
             // worst case of the emissivity uncertainty: the leader at its least favourable emissivity against the
             // runner-up at its most favourable, with the noise standard errors at those emissivities

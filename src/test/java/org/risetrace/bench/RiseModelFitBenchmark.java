@@ -2,8 +2,23 @@ package org.risetrace.bench;
 
 import org.junit.jupiter.api.Tag;
 import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+import org.risetrace.analysis.Analysis;
+import org.risetrace.analysis.AnalysisOptions;
+import org.risetrace.analysis.Analyzer;
+import org.risetrace.analysis.RiseCurve;
 import org.risetrace.analysis.RiseModelFit;
+import org.risetrace.analysis.SeriesAnalyzer;
+import org.risetrace.board.Board;
+import org.risetrace.board.BoardFile;
+import org.risetrace.calibration.Materials;
+import org.risetrace.io.Series;
+import org.risetrace.sim.Scenarios;
+import org.risetrace.sim.SimulationOutput;
+import org.risetrace.sim.Simulator;
 
+import java.nio.file.Files;
+import java.nio.file.Path;
 import java.util.Random;
 
 /**
@@ -52,5 +67,48 @@ class RiseModelFitBenchmark {
                 System.out.printf("| %d | %s | %.2f | %s |%n", n, names[s], passes[2], model);
             }
         }
+    }
+
+    /**
+     * The fits' share of whole analyses: a simulated 150-frame series of a random 10-part board and the bundled
+     * phase-short (90 frames, 21 parts) are analysed three times; then every curve with an onset is fitted again
+     * 20 times and the time per analysis' worth of fits is set against the analysis' wall time.
+     */
+    @Test
+    void fitShareOfWholeAnalyses(@TempDir Path dir) {
+        SimulationOutput out = Simulator.run(Scenarios.random(31, 10, 0.4).withFrames(150, 0.5, 5.0), dir.resolve("r"));
+        share("random 10 parts, 150 frames", out.directory());
+        Path bundled = Path.of("sample-frames", "phase-short");
+        if (Files.isDirectory(bundled)) share("phase-short, 90 frames", bundled);
+    }
+
+    private static void share(String name, Path dir) {
+        Series s = Series.open(dir);
+        Board b = BoardFile.read(dir.resolve("board.json"), Materials.load().names());
+        Analysis a = null;
+        long best = Long.MAX_VALUE;
+        for (int run = 0; run < 3; run++) {
+            long t0 = System.nanoTime();
+            a = SeriesAnalyzer.analyze(s, b, dir.resolve("board.json"), dir.toString(), AnalysisOptions.defaults(),
+                    SeriesAnalyzer.emissivity(s.profile()), 2, Analyzer.Progress.NONE);
+            best = Math.min(best, System.nanoTime() - t0);
+        }
+        double start = ((Number) a.result().parameters().get("t_start_s")).doubleValue();
+        int fitted = 0, onset = 0;
+        long fitNs = Long.MAX_VALUE;
+        for (int rep = 0; rep < 20; rep++) {
+            long t0 = System.nanoTime();
+            onset = 0;
+            for (RiseCurve c : a.curves())
+                if (c.onsetS() != null) {
+                    onset++;
+                    RiseModelFit.fit(c.tS(), c.riseK(), start);
+                }
+            fitNs = Math.min(fitNs, System.nanoTime() - t0);
+        }
+        for (RiseCurve c : a.curves()) if (c.fit() != null) fitted++;
+        System.out.printf("%s: %d parts, %d with an onset, %d fitted; analysis %.0f ms (fastest of 3), "
+                        + "all fits %.1f ms (fastest of 20) = %.1f %%%n", name, a.curves().size(), onset, fitted,
+                best / 1e6, fitNs / 1e6, 100.0 * fitNs / best);
     }
 }

@@ -238,6 +238,9 @@ final class Plots {
         XYSeriesCollection data = new XYSeriesCollection();
         // measured values as dots, the fit as a dashed line over them: both stay visible
         XYLineAndShapeRenderer renderer = new XYLineAndShapeRenderer(true, true);
+        // one path per series, so the dash pattern runs along the whole fit line (segment by segment, each of the
+        // short segments between measured times restarted the pattern and the line looked solid)
+        renderer.setDrawSeriesLineAsPath(true);
         int series = 0;
         for (int k = 0; k < curves.size(); k++) {
             RiseCurve c = curves.get(k);

@@ -191,7 +191,7 @@ class RiseModelFitTest {
         // level, so no more than about 1 % of them may give p < 0.01. F(2, n - 4) is exact for linear models and the
         // usual approximation for nonlinear nested ones (Bates and Watts 3.5); here it is conservative: under one
         // constant the two-constant optimum often lies at a limit (tau2 beyond the series: one extra ramp, one
-        // effective parameter instead of two), and a search from 90 starts found a lower sum of squares in only
+        // effective parameter instead of two), and a search from 180 starts found a lower sum of squares in only
         // 1 of 40 series. Measured (seed 77): 3 of 1000 at the 1 % level, 73 at the 10 % level. Allowed: up to the
         // 99.9 % quantile of Binomial(1000, level) from commons-math3 at either level, and at least half the nominal
         // rate at 10 % (a p-value off by a factor, e.g. F(1, n - 4) or SSR not halved, falls outside); at least 95 %

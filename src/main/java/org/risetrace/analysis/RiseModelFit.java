@@ -26,9 +26,10 @@ import java.util.Locale;
  *
  * <p>Fitting: for fixed time constants the amplitudes are linear least squares (variable projection, Golub and
  * Pereyra 1973), so a log-spaced grid over tau (one constant) or over (tau1, tau2) with tau2 &gt; tau1 (two) gives
- * the start; Levenberg-Marquardt (ddogleg, analytic Jacobian, time constants as ln tau so they stay positive)
- * refines it. Standard errors from s^2 (J^T J)^-1 at the optimum, J in (A, tau), s^2 = SSR / (n - p)
- * (Gauss-Newton linearisation; Bates and Watts, Nonlinear Regression Analysis, ch. 2).
+ * the start; Levenberg-Marquardt (ddogleg) over ln tau with the amplitudes projected out (Kaufman's Jacobian)
+ * refines it. Standard errors from s^2 (J^T J)^-1 at the optimum, J the full problem's analytic Jacobian in
+ * (A, tau), s^2 = SSR / (n - p) (Gauss-Newton linearisation; Bates and Watts, Nonlinear Regression Analysis,
+ * ch. 2).
  *
  * <p>Choice, stated once here and in DEVELOPERS.md: two constants when (1) the extra-sum-of-squares F-test of the
  * nested models rejects one constant at the 1 % level, F = ((SSR1 - SSR2) / 2) / (SSR2 / (n - 4)) against
@@ -255,8 +256,8 @@ public record RiseModelFit(
      * Two constants on t' &gt; 0, tau1 &lt; tau2 (see {@link #optimum}); null when the optimiser failed. Three starts
      * from the grid, the lowest sum of squares wins: the best pair, the best with tau2 at the grid's longest (a
      * board still ramping) and the best with tau1 at its shortest (a near step at t0). On one-constant data the
-     * best pair alone often led into the collinear valley tau1 = tau2 and stopped above the model's least sum of
-     * squares (measured: the F-test then rejected 0.3 % instead of about 1 % at the 1 % level).
+     * best pair alone sometimes led into the collinear valley tau1 = tau2 and stopped there with F = 0 where
+     * another start found a lower sum of squares.
      */
     static Optimum fitDouble(double[] ts, double[] ys) {
         Grid g = new Grid(ts, ys);

@@ -550,6 +550,7 @@ public record RiseModelFit(
     static String sig(double v) {
         if (!Double.isFinite(v)) return String.valueOf(v);
         if (v != 0 && Math.abs(v) < 1e-3) return String.format(Locale.ROOT, "%.1e", v);
+        if (Math.abs(v) >= 1000 && Math.abs(v) < 1e7) return String.format(Locale.ROOT, "%.0f", v);
         return String.format(Locale.ROOT, "%.3g", v);
     }
 }

@@ -259,6 +259,7 @@ public final class ReportHtml {
                 h.append("</td></tr>\n");
             }
             h.append("</tbody></table>\n");
+            if (!comparison) h.append(twoConstantNotes(ranked));
         }
         h.append("</section>\n");
 
@@ -391,6 +392,24 @@ public final class ReportHtml {
             s.append("; no fit for ").append(none)
                     .append(" (no onset above the noise, or a curve the series does not determine)");
         return s.append('.').toString();
+    }
+
+    /** Below the ranking: each two-constant model in full (the table has room for the time constants only). */
+    static String twoConstantNotes(List<PartResult> ranked) {
+        StringBuilder s = new StringBuilder();
+        for (PartResult p : ranked) {
+            if (p.fit() == null || !p.fit().isDouble()) continue;
+            org.risetrace.analysis.RiseModelFit f = p.fit();
+            org.risetrace.analysis.RiseModelFit.Term a = f.terms().get(0), b = f.terms().get(1);
+            s.append(s.length() == 0 ? "" : "; ").append(esc(p.ref())).append(": \u0394T1 = ")
+                    .append(withError(a.dtK(), a.dtSe())).append(" K, \u03c41 = ").append(withError(a.tauS(), a.tauSe()))
+                    .append(" s; \u0394T2 = ").append(withError(b.dtK(), b.dtSe())).append(" K, \u03c42 = ")
+                    .append(withError(b.tauS(), b.tauSe())).append(" s (")
+                    .append(esc(f.selection().replaceFirst("^two time constants \\((.*)\\)$", "$1"))).append(')');
+        }
+        if (s.length() == 0) return "";
+        return "<p class=\"fits\">Two time constants, \u0394T\u221e = \u0394T1 + \u0394T2: "
+                + s + ".</p>\n";
     }
 
     /** The time constants of a part's model with their errors: one, or "fast and slow". */

@@ -84,6 +84,11 @@ class RiseCurvePlotTest {
         String caption = ReportHtml.curvesCaption(a.curves().subList(0, 5));
         assertTrue(caption.contains("two time constants") && caption.contains("for Q3"), caption);
         assertTrue(caption.contains("one time constant"), caption);
+        // below the ranking, the two-constant model in full: both amplitudes and time constants with errors
+        String page = ReportHtml.toHtml(a, null);
+        RiseModelFit.Term fast = a.curves().get(0).fit().terms().get(0);
+        assertTrue(page.contains("Q3: \u0394T1 = " + Html.withError(fast.dtK(), fast.dtSe()) + " K, \u03c41 = "
+                + Html.withError(fast.tauS(), fast.tauSe()) + " s"), "two-constant note");
     }
 
     @Test

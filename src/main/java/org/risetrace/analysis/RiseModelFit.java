@@ -123,20 +123,15 @@ public record RiseModelFit(
      * @param p       A1, tau1 (, A2, tau2), tau1 &lt; tau2
      * @param cov     s^2 (J^T J)^-1 in those parameters (null with a problem)
      * @param ssr     sum of squared residuals
-     * @param problem null, or why there is no interior optimum (a time constant ran beyond 1000 spans or towards
-     *                zero, J^T J singular): p and ssr are then where the descent stopped, an upper bound of the
-     *                model's least sum of squares
+     * @param problem null, or why there is no settled interior optimum (a time constant ran beyond 1000 spans or
+     *                towards zero, the two merged, the search crept or did not settle, J^T J singular): p and ssr
+     *                are then where the descent stopped, an upper bound of the model's least sum of squares
      */
     record Optimum(double[] p, double[][] cov, double ssr, int n, String problem) {
         double se(int i) {
             return cov == null ? Double.NaN : Math.sqrt(cov[i][i]);
         }
 
-        double at(double tPrime) {
-            double v = 0;
-            for (int k = 0; k < p.length; k += 2) v += p[k] * -Math.expm1(-tPrime / p[k + 1]);
-            return v;
-        }
     }
 
     /**
@@ -210,8 +205,9 @@ public record RiseModelFit(
     }
 
     /**
-     * P(F &gt; f) for F(2, nu): the regularised incomplete beta I_x(1, nu/2) has the closed form 1 - (1 - x)^(nu/2),
-     * so the survival function is (1 + 2 f / nu)^(-nu/2) (Abramowitz and Stegun 26.6.2 and 26.5.2 for a = 1).
+     * P(F &gt; f) for F(2, nu): Q = I_x(nu/2, 1) with x = nu / (nu + 2 f) (Abramowitz and Stegun 26.6.2, from
+     * memory), and I_x(a, 1) = x^a, so Q = (1 + 2 f / nu)^(-nu/2). Checked against commons-math3's FDistribution
+     * in the tests.
      */
     static double fSurvivalTwo(double f, int nu) {
         if (!(f > 0)) return 1.0;

@@ -18,11 +18,12 @@ import java.util.Arrays;
  * @param noiseK     measured noise sigma of the rise
  * @param onsetS     series time of the first of {@code onsetFrames} consecutive frames above k sigma; null if none
  * @param rate       initial rate fit over the early window (null when too few frames)
- * @param fit        first-order fit (null when the part shows no onset or the fit fails)
+ * @param fit        the rise model with one or two time constants (null when the part shows no onset or no model
+ *                   is determined; {@link RiseModelFit} states the choice)
  * @param endRiseK   mean rise over the last frames
  */
 public record PartCurve(double[] riseK, double baselineC, double noiseK, Double onsetS, LineFit rate,
-                        FirstOrderFit fit, double endRiseK) {
+                        RiseModelFit fit, double endRiseK) {
 
     public static final int MIN_BASELINE_FOR_NOISE = 5;
 
@@ -46,6 +47,12 @@ public record PartCurve(double[] riseK, double baselineC, double noiseK, Double 
      */
     public static PartCurve measure(double[] tS, double[] partC, double[] ambientC, double[] weight, int baseline,
                                     double tStartS, double windowS, double positionErrorK, AnalysisOptions o) {
+        return measure(tS, partC, ambientC, weight, baseline, tStartS, windowS, positionErrorK, o, true);
+    }
+
+    /** As above; without the rise model when {@code fitRise} is false (a caller that has it from another window). */
+    static PartCurve measure(double[] tS, double[] partC, double[] ambientC, double[] weight, int baseline,
+                             double tStartS, double windowS, double positionErrorK, AnalysisOptions o, boolean fitRise) {
         int n = tS.length;
         baseline = Math.max(1, Math.min(baseline, n));
         double[] amb = fillAmbient(ambientC, n, baseline);
@@ -76,14 +83,18 @@ public record PartCurve(double[] riseK, double baselineC, double noiseK, Double 
             rate = new LineFit(rate.intercept(), rate.slope(), Math.hypot(rate.slopeSe(), floor), rate.residualSigma(), rate.n());
         }
 
-        FirstOrderFit fit = onset == null ? null : FirstOrderFit.fit(tS, rise, tStartS);
-        // a curve still straight at the end of the series does not determine a time constant: no fit then
-        double span = tS[n - 1] - tStartS;
-        if (fit != null && (fit.tauS() > 5 * span || fit.tauSe() > fit.tauS())) fit = null;
+        // only a part that heated is fitted; RiseModelFit drops a model the series does not determine (a curve
+        // still straight at its end, a second constant not told apart from the first)
+        RiseModelFit fit = onset == null || !fitRise ? null : RiseModelFit.fit(tS, rise, tStartS);
 
         int last = Math.max(baseline, n - o.lastFrames());
         double end = meanFinite(rise, Math.min(last, n - 1), n);
         return new PartCurve(rise, base, noise, onset, rate, fit, end);
+    }
+
+    /** The same curve with another rise model (the rise and the onset do not depend on the rate window). */
+    PartCurve withFit(RiseModelFit other) {
+        return new PartCurve(riseK, baselineC, noiseK, onsetS, rate, other, endRiseK);
     }
 
     /** Ambient with gaps filled by the last known value; zeros (no correction) when it is unknown in the baseline. */

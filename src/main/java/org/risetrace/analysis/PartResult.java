@@ -13,15 +13,17 @@ import java.util.List;
  * @param rateSe         its standard error
  * @param riseK          rise above ambient at the end of the series (mean of the last frames)
  * @param onsetS         first time the rise exceeded k * noise
- * @param tauS           first-order time constant
+ * @param tauS           time constant of the fitted rise model; with two constants the slow one (the board's)
  * @param tauSe          its standard error
- * @param dtInfK         first-order final rise
+ * @param dtInfK         final rise of the fitted model (with two constants the sum of both amplitudes)
  * @param dtInfSe        its standard error
- * @param fitRmsK        residual RMS of the first-order fit
+ * @param fitRmsK        residual RMS of the fitted model
  * @param noiseK         the part's measured noise sigma
  * @param validFraction  mean fraction of the footprint that fell inside the frames
  * @param emissivity     emissivity used for this part
  * @param warnings       plain-words warnings (low emissivity, partly outside the frame, ...)
+ * @param fit            the fitted rise model in full: one or two time constants, every parameter with its error,
+ *                       the F-test that chose it (null: no fit)
  */
 public record PartResult(
         @JsonProperty("ref") String ref,
@@ -38,5 +40,14 @@ public record PartResult(
         @JsonProperty("noise_k") Double noiseK,
         @JsonProperty("valid_fraction") Double validFraction,
         @JsonProperty("emissivity") Double emissivity,
-        @JsonProperty("warnings") List<String> warnings) {
+        @JsonProperty("warnings") List<String> warnings,
+        @JsonProperty("fit") RiseModelFit fit) {
+
+    /** Without the full fit record (the form of earlier versions). */
+    public PartResult(String ref, int rank, Double rateKPerS, Double rateSe, Double riseK, Double onsetS, Double tauS,
+                      Double tauSe, Double dtInfK, Double dtInfSe, Double fitRmsK, Double noiseK, Double validFraction,
+                      Double emissivity, List<String> warnings) {
+        this(ref, rank, rateKPerS, rateSe, riseK, onsetS, tauS, tauSe, dtInfK, dtInfSe, fitRmsK, noiseK, validFraction,
+                emissivity, warnings, null);
+    }
 }

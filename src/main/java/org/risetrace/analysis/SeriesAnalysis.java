@@ -164,7 +164,7 @@ public final class SeriesAnalysis {
             w[i] = Math.min(wl[i], ws[i]);
         }
         PartCurve diff = PartCurve.measure(t, d, null, w, Math.max(1, baselineUsed), plan.tStartS(), windowS,
-                Math.hypot(sl * posErrLeadK, ss * posErrSecondK), options);
+                Math.hypot(sl * posErrLeadK, ss * posErrSecondK), options, false);
         LineFit r = diff.rate();
         if (r == null || !(r.slopeSe() > 0)) return null;
         return r.slope() / r.slopeSe();
@@ -248,9 +248,9 @@ public final class SeriesAnalysis {
         double windowS = rateWindow(t, curves, options, plan.tStartS());
         if (windowS < options.rateWindowS()) {
             positionSigma = windowEndsSigma(t, mappingSigmaBoardPx, plan.tStartS(), windowS, options.minRateFrames());
-            for (int p = 0; p < np; p++)
+            for (int p = 0; p < np; p++)  // the rise model does not depend on the window: fitted once
                 curves[p] = PartCurve.measure(t, ys[p], amb, ws[p], baselineUsed, plan.tStartS(), windowS,
-                        positionErrorK[p] * positionSigma, options);
+                        positionErrorK[p] * positionSigma, options, false).withFit(curves[p].fit());
         }
         this.windowUsedS = windowS;
         this.positionSigmaBoardPx = positionSigma;
@@ -304,7 +304,7 @@ public final class SeriesAnalysis {
             Part part = parts.get(p);
             PartCurve c = curves[p];
             LineFit rate = c.rate();
-            FirstOrderFit fit = c.fit();
+            RiseModelFit fit = c.fit();
             List<String> warnings = new ArrayList<>();
             if (eps[p].value() < 0.5)
                 warnings.add("emissivity " + eps[p].value() + " (" + part.material()
@@ -319,11 +319,10 @@ public final class SeriesAnalysis {
             if (!(c.noiseK() > 0)) warnings.add("noise could not be measured (too few frames)");
             results.add(new PartResult(part.ref(), rank + 1, rate == null ? null : rate.slope(),
                     rate == null ? null : rateSe[p], finite(c.endRiseK()), c.onsetS(),
-                    fit == null ? null : fit.tauS(), fit == null ? null : fit.tauSe(),
+                    fit == null ? null : fit.slow().tauS(), fit == null ? null : fit.slow().tauSe(),
                     fit == null ? null : fit.dtInfK(), fit == null ? null : fit.dtInfSe(),
-                    fit == null ? null : fit.rmsK(), finite(c.noiseK()), meanValid[p], eps[p].value(), warnings));
-            riseCurves.add(new RiseCurve(part.ref(), t.clone(), c.riseK(), fit == null ? null : fit.t0S(),
-                    fit == null ? null : fit.tauS(), fit == null ? null : fit.dtInfK()));
+                    fit == null ? null : fit.rmsK(), finite(c.noiseK()), meanValid[p], eps[p].value(), warnings, fit));
+            riseCurves.add(new RiseCurve(part.ref(), t.clone(), c.riseK(), c.onsetS(), fit));
         }
         return new Analysis(result(verdict, results, hotspots), board, riseCurves, sm.map(), maps.onsetMap(), lastRaster);
     }
@@ -378,6 +377,7 @@ public final class SeriesAnalysis {
                 + " mapping uncertainty (corner_sigma_px) at the two ends of the rate window");
         params.put("position_sigma_board_px", positionSigmaBoardPx);
         if (maps != null) params.put("pixel_noise_k", finite(maps.pixelSigma()));
+        params.put("fit_model_rule", RiseModelFit.RULE);
         return new AnalysisResult(AnalysisResult.SCHEMA, "risetrace", context.version(), Instant.now().toString(),
                 context.series(), context.boardFile(), context.profile(), params, context.injection(), v, parts,
                 hotspots, List.copyOf(records));

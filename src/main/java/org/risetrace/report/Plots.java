@@ -228,11 +228,19 @@ final class Plots {
         return path;
     }
 
-    /** Rise-versus-time curves with their first-order fits dashed, and the injection start as a vertical line. */
+    /** Rise-versus-time curves with their fitted rise models dashed, and the injection start as a vertical line. */
     static byte[] curvesPng(List<RiseCurve> curves, Double injectionStartS) {
+        return png(curvesChart(curves, injectionStartS), WIDTH_PX, CURVES_HEIGHT_PX);
+    }
+
+    /** The chart {@link #curvesPng} draws; its data set holds per curve the measured series, then its fit line. */
+    static JFreeChart curvesChart(List<RiseCurve> curves, Double injectionStartS) {
         XYSeriesCollection data = new XYSeriesCollection();
         // measured values as dots, the fit as a dashed line over them: both stay visible
         XYLineAndShapeRenderer renderer = new XYLineAndShapeRenderer(true, true);
+        // one path per series, so the dash pattern runs along the whole fit line (segment by segment, each of the
+        // short segments between measured times restarted the pattern and the line looked solid)
+        renderer.setDrawSeriesLineAsPath(true);
         int series = 0;
         for (int k = 0; k < curves.size(); k++) {
             RiseCurve c = curves.get(k);
@@ -243,21 +251,16 @@ final class Plots {
                 if (Double.isFinite(c.tS()[i]) && Double.isFinite(c.riseK()[i])) measured.add(c.tS()[i], c.riseK()[i]);
             data.addSeries(measured);
             renderer.setSeriesPaint(series, colour);
-            boolean fitted = c.fitTauS() != null && c.fitDtInfK() != null && c.fitT0S() != null;
+            double[][] line = fitLine(c);
+            boolean fitted = line[0].length > 0;
             renderer.setSeriesStroke(series, new BasicStroke(1.0f));
             renderer.setSeriesLinesVisible(series, !fitted);
             renderer.setSeriesShape(series, new Ellipse2D.Double(-3, -3, 6, 6));
             renderer.setSeriesShapesVisible(series, true);
             series++;
             if (fitted && n > 0) {
-                XYSeries fit = new XYSeries(measured.getKey() + " first-order fit", true, false);
-                double t0 = Arrays.stream(c.tS()).filter(Double::isFinite).min().orElse(0);
-                double t1 = Arrays.stream(c.tS()).filter(Double::isFinite).max().orElse(1);
-                for (int i = 0; i <= 120; i++) {
-                    double t = t0 + (t1 - t0) * i / 120.0;
-                    double v = c.fitAt(t);
-                    if (Double.isFinite(v)) fit.add(t, v);
-                }
+                XYSeries fit = new XYSeries(measured.getKey() + " fitted model", false, true);
+                for (int i = 0; i < line[0].length; i++) fit.add(line[0][i], line[1][i]);
                 data.addSeries(fit);
                 renderer.setSeriesPaint(series, colour);
                 renderer.setSeriesStroke(series, new BasicStroke(2.2f, BasicStroke.CAP_BUTT, BasicStroke.JOIN_ROUND,
@@ -291,7 +294,42 @@ final class Plots {
         }
         JFreeChart chart = new JFreeChart(null, JFreeChart.DEFAULT_TITLE_FONT, plot, true);
         styleLegend(chart);
-        return png(chart, WIDTH_PX, CURVES_HEIGHT_PX);
+        return chart;
+    }
+
+    /**
+     * The dashed line of a curve's fitted model as {times, values}: over the measured times, at each measured time,
+     * at t0 (the kink where the model starts) and at 240 even steps between, so the line passes through the model's
+     * value at every point drawn beside it. Empty without a fit or without an onset (a part that never rose has no
+     * curve to fit).
+     */
+    static double[][] fitLine(RiseCurve c) {
+        if (c.fit() == null || c.onsetS() == null || c.tS() == null) return new double[][]{{}, {}};
+        double t0 = Double.POSITIVE_INFINITY, t1 = Double.NEGATIVE_INFINITY;
+        for (double t : c.tS())
+            if (Double.isFinite(t)) {
+                t0 = Math.min(t0, t);
+                t1 = Math.max(t1, t);
+            }
+        if (!(t1 > t0)) return new double[][]{{}, {}};
+        int steps = 240;
+        double[] ts = new double[steps + 2 + c.tS().length];
+        int k = 0;
+        for (int i = 0; i <= steps; i++) ts[k++] = t0 + (t1 - t0) * i / steps;
+        double start = c.fit().t0S();
+        ts[k++] = start >= t0 && start <= t1 ? start : t0;
+        for (double t : c.tS()) ts[k++] = Double.isFinite(t) ? t : t0;
+        Arrays.sort(ts, 0, k);
+        double[] tt = new double[k], vv = new double[k];
+        int m = 0;
+        for (int i = 0; i < k; i++) {
+            if (m > 0 && ts[i] == tt[m - 1]) continue;
+            double v = c.fitAt(ts[i]);
+            if (!Double.isFinite(v)) continue;
+            tt[m] = ts[i];
+            vv[m++] = v;
+        }
+        return new double[][]{Arrays.copyOf(tt, m), Arrays.copyOf(vv, m)};
     }
 
     /** Registration residual RMS per frame over time, one series per status so weak frames stand out. */

@@ -224,11 +224,8 @@ public final class ReportHtml {
         if (!comparison && anyCurve) {
             h.append("<section><h2>Rise over time</h2>\n");
             Double start = r.injection() == null ? null : r.injection().startS();
-            boolean anyFit = shown.stream().anyMatch(c -> c.fitTauS() != null && c.fitDtInfK() != null);
             figure(h, Plots.curvesPng(shown, start), "Rise curves", "Rise above ambient of the "
-                    + (shown.size() == 1 ? "leading part" : shown.size() + " leading parts")
-                    + (anyFit ? "; dots: measured, dashed: the first-order fit "
-                    + "\u0394T\u221e\u00b7(1 \u2212 exp(\u2212(t \u2212 t0)/\u03c4))." : "; no first-order fit was made."));
+                    + (shown.size() == 1 ? "leading part" : shown.size() + " leading parts") + curvesCaption(shown));
             h.append("</section>\n");
         }
 
@@ -251,7 +248,7 @@ public final class ReportHtml {
                 h.append("<td>").append(fixed(p.riseK(), 2)).append("</td>");
                 if (!comparison) {
                     h.append("<td>").append(fixed(p.onsetS(), 1)).append("</td><td>")
-                            .append(withError(p.tauS(), p.tauSe())).append("</td><td>")
+                            .append(timeConstants(p)).append("</td><td>")
                             .append(withError(p.dtInfK(), p.dtInfSe())).append("</td><td>")
                             .append(sig(p.fitRmsK(), 2)).append("</td>");
                 }
@@ -262,6 +259,7 @@ public final class ReportHtml {
                 h.append("</td></tr>\n");
             }
             h.append("</tbody></table>\n");
+            if (!comparison) h.append(twoConstantNotes(ranked));
         }
         h.append("</section>\n");
 
@@ -367,6 +365,60 @@ public final class ReportHtml {
         h.append("<p>").append(ok).append(" ok, ").append(marked).append(" marked by hand, ").append(weak)
                 .append(" weak, ").append(failed).append(" failed (left out).")
                 .append(weak > 0 ? " Weak frames were used, but their mapping is marginal." : "").append("</p>\n");
+    }
+
+    // ---- the rise model in the curves' caption and the ranking table ----
+
+    /**
+     * What the rise plot draws, part by part: dots are measured; the dashed line is the model chosen for that part
+     * (one or two time constants), and a part without one says why.
+     */
+    static String curvesCaption(List<RiseCurve> shown) {
+        StringBuilder one = new StringBuilder(), two = new StringBuilder(), none = new StringBuilder();
+        for (RiseCurve c : shown) {
+            StringBuilder to = c.fit() == null ? none : c.fit().isDouble() ? two : one;
+            to.append(to.length() == 0 ? "" : ", ").append(c.ref());
+        }
+        StringBuilder s = new StringBuilder("; dots: measured");
+        if (one.length() + two.length() > 0) s.append("; dashed: the fitted rise model from the injection start t0");
+        if (two.length() > 0)
+            s.append(", two time constants \u0394T1\u00b7(1 \u2212 exp(\u2212(t \u2212 t0)/\u03c41)) + "
+                    + "\u0394T2\u00b7(1 \u2212 exp(\u2212(t \u2212 t0)/\u03c42)) for ").append(two);
+        if (one.length() > 0)
+            s.append(two.length() > 0 ? ";" : ",")
+                    .append(" one time constant \u0394T\u221e\u00b7(1 \u2212 exp(\u2212(t \u2212 t0)/\u03c4)) for ")
+                    .append(one);
+        if (none.length() > 0)
+            s.append("; no fit for ").append(none)
+                    .append(" (no onset above the noise, or a curve the series does not determine)");
+        return s.append('.').toString();
+    }
+
+    /** Below the ranking: each two-constant model in full (the table has room for the time constants only). */
+    static String twoConstantNotes(List<PartResult> ranked) {
+        StringBuilder s = new StringBuilder();
+        for (PartResult p : ranked) {
+            if (p.fit() == null || !p.fit().isDouble()) continue;
+            org.risetrace.analysis.RiseModelFit f = p.fit();
+            org.risetrace.analysis.RiseModelFit.Term a = f.terms().get(0), b = f.terms().get(1);
+            s.append(s.length() == 0 ? "" : "; ").append(esc(p.ref())).append(": \u0394T1 = ")
+                    .append(withError(a.dtK(), a.dtSe())).append(" K, \u03c41 = ").append(withError(a.tauS(), a.tauSe()))
+                    .append(" s; \u0394T2 = ").append(withError(b.dtK(), b.dtSe())).append(" K, \u03c42 = ")
+                    .append(withError(b.tauS(), b.tauSe())).append(" s (")
+                    .append(esc(f.selection().replaceFirst("^two time constants \\((.*)\\)$", "$1"))).append(')');
+        }
+        if (s.length() == 0) return "";
+        return "<p class=\"fits\">Two time constants, \u0394T\u221e = \u0394T1 + \u0394T2: "
+                + s + ".</p>\n";
+    }
+
+    /** The time constants of a part's model with their errors: one, or "fast and slow". */
+    static String timeConstants(PartResult p) {
+        if (p.fit() == null || !p.fit().isDouble()) return withError(p.tauS(), p.tauSe());
+        StringBuilder s = new StringBuilder();
+        for (org.risetrace.analysis.RiseModelFit.Term t : p.fit().terms())
+            s.append(s.length() == 0 ? "" : " and ").append(withError(t.tauS(), t.tauSe()));
+        return s.toString();
     }
 
     /** An ISO-8601 instant as "2026-12-01 23:40:00 UTC"; anything else unchanged. */

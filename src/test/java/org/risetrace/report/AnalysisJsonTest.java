@@ -57,6 +57,35 @@ class AnalysisJsonTest {
     }
 
     @Test
+    void eachFittedPartCarriesItsModelWithErrorsAndTheSelection() throws Exception {
+        JsonNode root = READER.readTree(AnalysisJson.toJson(DemoAnalysis.build().result()));
+        JsonNode q3 = root.get("parts").get(0);
+        JsonNode fit = q3.get("fit");
+        assertEquals(List.of("model", "t0_s", "terms", "dt_inf_k", "dt_inf_se", "rms_k", "n", "f_statistic",
+                "p_value", "selection"), names(fit));
+        // the demo fault has a die and a board term (DemoAnalysis): two constants, fast first
+        assertEquals("double", fit.get("model").asText());
+        assertEquals(2, fit.get("terms").size());
+        for (JsonNode term : fit.get("terms")) {
+            assertEquals(List.of("dt_k", "dt_se", "tau_s", "tau_se"), names(term));
+            assertTrue(term.get("tau_se").asDouble() > 0 && term.get("dt_se").asDouble() > 0);
+        }
+        assertTrue(fit.get("terms").get(0).get("tau_s").asDouble() < fit.get("terms").get(1).get("tau_s").asDouble());
+        // the flat fields stay meaningful: tau_s the slow constant, dt_inf_k the sum, fit_rms_k the model's RMS
+        assertEquals(fit.get("terms").get(1).get("tau_s").asDouble(), q3.get("tau_s").asDouble(), 0.0);
+        assertEquals(fit.get("terms").get(0).get("dt_k").asDouble() + fit.get("terms").get(1).get("dt_k").asDouble(),
+                q3.get("dt_inf_k").asDouble(), 1e-12);
+        assertEquals(fit.get("rms_k").asDouble(), q3.get("fit_rms_k").asDouble(), 0.0);
+        assertTrue(fit.get("p_value").asDouble() < 0.01);
+        // a one-constant part: one term, and the test that kept it
+        JsonNode single = null;
+        for (JsonNode p : root.get("parts")) if (p.get("fit").path("model").asText().equals("single")) single = p;
+        assertTrue(single != null);
+        assertEquals(1, single.get("fit").get("terms").size());
+        assertTrue(single.get("fit").get("selection").asText().startsWith("one time constant"));
+    }
+
+    @Test
     void fieldsKeepTheRecordOrder() throws Exception {
         JsonNode root = READER.readTree(AnalysisJson.toJson(DemoAnalysis.build().result()));
         assertEquals(List.of("schema", "tool", "version", "created_utc", "series", "board", "profile", "parameters",
@@ -64,7 +93,7 @@ class AnalysisJsonTest {
         assertEquals(List.of("status", "ref", "rate_k_per_s", "runner_up_ref", "separation_sigma", "reason"),
                 names(root.get("verdict")));
         assertEquals(List.of("ref", "rank", "rate_k_per_s", "rate_se", "rise_k", "onset_s", "tau_s", "tau_se",
-                "dt_inf_k", "dt_inf_se", "fit_rms_k", "noise_k", "valid_fraction", "emissivity", "warnings"),
+                "dt_inf_k", "dt_inf_se", "fit_rms_k", "noise_k", "valid_fraction", "emissivity", "warnings", "fit"),
                 names(root.get("parts").get(0)));
         // map entries sorted by key, so equal inputs give equal bytes
         List<String> params = names(root.get("parameters"));

@@ -7,6 +7,7 @@ import org.risetrace.analysis.FrameRecord;
 import org.risetrace.analysis.Hotspot;
 import org.risetrace.analysis.PartResult;
 import org.risetrace.analysis.RiseCurve;
+import org.risetrace.analysis.RiseModelFit;
 import org.risetrace.analysis.Verdict;
 import org.risetrace.analysis.VerdictStatus;
 import org.risetrace.board.Board;
@@ -28,7 +29,8 @@ import java.util.Random;
 
 /**
  * Invented test data only: a small made-up board ("RT-7 bench board", 80 x 60 mm, ten parts), 60 frames two
- * seconds apart, rise curves from first-order formulas with seeded noise, maps from Gaussians. No real product.
+ * seconds apart, rise curves from one- and (for the fault, die plus board) two-time-constant formulas with seeded
+ * noise, fitted by {@link RiseModelFit}, maps from Gaussians. No real product.
  */
 final class DemoAnalysis {
     static final int FRAMES = 60;
@@ -75,8 +77,11 @@ final class DemoAnalysis {
             parts.add(new Part(ref, k < 2 ? "mosfet" : null, null, (double) p[1], (double) p[2], (double) p[3],
                     (double) p[4], (double) p[5] == 0 ? null : (double) p[5]));
             double[] rise = new double[nFrames];
+            // the invented fault Q3 has a die term besides the board's: 35 % of its rise with a 5 s time constant
+            double die = k == 0 ? 0.35 : 0.0;
             for (int i = 0; i < nFrames; i++) {
-                double model = t[i] <= t0 ? 0 : dtInf * (1 - Math.exp(-(t[i] - t0) / tau));
+                double model = t[i] <= t0 ? 0 : dtInf * ((1 - die) * (1 - Math.exp(-(t[i] - t0) / tau))
+                        + die * (1 - Math.exp(-(t[i] - t0) / 5.0)));
                 rise[i] = model + 0.03 * random.nextGaussian();
             }
             if (comparison) {
@@ -84,13 +89,16 @@ final class DemoAnalysis {
                 results.add(new PartResult(ref, k + 1, null, null, rise[nFrames - 1], null, null, null, null, null,
                         null, 0.03, 1.0, 0.95, List.of()));
             } else {
-                curves.add(new RiseCurve(ref, t, rise, t0, tau, dtInf));
+                RiseModelFit fit = RiseModelFit.fit(t, rise, t0);
+                curves.add(new RiseCurve(ref, t, rise, t0 + 2, fit));
                 double rate = dtInf / tau;
                 List<String> warnings = ref.equals("R5") ? List.of("emissivity 0.35: reading may be low")
                         : ref.equals("D2") ? List.of("12 % of the footprint outside some frames") : List.of();
                 results.add(new PartResult(ref, k + 1, rate, 0.004 + 0.001 * k, rise[nFrames - 1], t0 + 2,
-                        tau, tau * 0.05, dtInf, dtInf * 0.03, 0.031, 0.03, ref.equals("D2") ? 0.88 : 1.0,
-                        ref.equals("R5") ? 0.35 : 0.95, warnings));
+                        fit == null ? null : fit.slow().tauS(), fit == null ? null : fit.slow().tauSe(),
+                        fit == null ? null : fit.dtInfK(), fit == null ? null : fit.dtInfSe(),
+                        fit == null ? null : fit.rmsK(), 0.03, ref.equals("D2") ? 0.88 : 1.0,
+                        ref.equals("R5") ? 0.35 : 0.95, warnings, fit));
             }
         }
 

@@ -178,7 +178,7 @@ class ReportHtmlTest {
                 r.hotspots(), r.frames());
         List<RiseCurve> curves = new ArrayList<>(a.curves());
         RiseCurve c = curves.get(1);
-        curves.set(1, new RiseCurve(evil, c.tS(), c.riseK(), c.fitT0S(), c.fitTauS(), c.fitDtInfK()));
+        curves.set(1, new RiseCurve(evil, c.tS(), c.riseK(), c.onsetS(), c.fit()));
         String page = ReportHtml.toHtml(new Analysis(hostile, a.board(), curves, a.riseMap(), a.onsetMap(),
                 a.lastFrame()), "notes <script>x()</script> & more");
         // OWASP XSS Prevention Cheat Sheet, rule 1: HTML-encode untrusted data in element content

@@ -55,7 +55,7 @@ public final class Planner {
         double limitA = Math.min(in.supplyMaxA(), byPowerA);
         double currentA = Math.min(limitA, byVoltageA);
         String mode = byVoltageA > limitA ? InjectionPlan.CONSTANT_CURRENT : InjectionPlan.CONSTANT_VOLTAGE;
-        double terminalV = currentA * r;
+        double terminalV = byVoltageA > limitA ? currentA * r : setV;
         double shortW = currentA * currentA * rShort, pathW = currentA * currentA * rPath;
 
         if (in.supplyMaxA() < Math.min(byPowerA, byVoltageA)) {

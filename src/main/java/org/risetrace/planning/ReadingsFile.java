@@ -64,8 +64,9 @@ public final class ReadingsFile {
     }
 
     static List<BenchReading> parse(String text, Path file) {
+        text = withoutComments(text);
         int[] lineStarts = lineStarts(text);
-        CSVFormat fmt = CSVFormat.DEFAULT.builder().setTrim(true).setIgnoreEmptyLines(true).setCommentMarker('#').build();
+        CSVFormat fmt = CSVFormat.DEFAULT.builder().setTrim(true).setIgnoreEmptyLines(true).build();
         List<CSVRecord> records;
         try (CSVParser p = CSVParser.parse(text, fmt)) {
             records = p.getRecords();
@@ -74,7 +75,7 @@ public final class ReadingsFile {
         }
         if (records.isEmpty()) throw new InputRejected(file, "empty: no header line", "first line: " + String.join(",", REQUIRED));
         CSVRecord header = records.get(0);
-        int headerLine = lineOf(lineStarts, header.getCharacterPosition());
+        int headerLine = lineOf(lineStarts, text, header.getCharacterPosition());
         Map<String, Integer> col = new HashMap<>();
         for (int i = 0; i < header.size(); i++) {
             String name = header.get(i).toLowerCase(Locale.ROOT);
@@ -90,7 +91,8 @@ public final class ReadingsFile {
                         "the header needs " + String.join(", ", REQUIRED));
         List<BenchReading> out = new ArrayList<>();
         for (CSVRecord rec : records.subList(1, records.size())) {
-            int line = lineOf(lineStarts, rec.getCharacterPosition());
+            if (rec.stream().allMatch(String::isBlank)) continue; // a line of blanks
+            int line = lineOf(lineStarts, text, rec.getCharacterPosition());
             if (rec.size() > header.size())
                 throw new InputRejected(file, "line " + line + ": " + rec.size() + " fields, the header has " + header.size());
             String what = required(rec, col, "what", file, line);
@@ -143,6 +145,16 @@ public final class ReadingsFile {
         return v;
     }
 
+    /**
+     * Comment lines (first non-blank character #) emptied, keeping every line break: commons-csv's own comment
+     * handling shifts the record positions we count lines from.
+     */
+    static String withoutComments(String text) {
+        String[] lines = text.split("\n", -1);
+        for (int i = 0; i < lines.length; i++) if (lines[i].strip().startsWith("#")) lines[i] = "";
+        return String.join("\n", lines);
+    }
+
     private static int[] lineStarts(String text) {
         List<Integer> starts = new ArrayList<>();
         starts.add(0);
@@ -150,8 +162,11 @@ public final class ReadingsFile {
         return starts.stream().mapToInt(Integer::intValue).toArray();
     }
 
-    private static int lineOf(int[] starts, long position) {
-        int k = Arrays.binarySearch(starts, (int) position);
+    /** The line a record starts on; commons-csv gives the position before the empty lines it skipped. */
+    private static int lineOf(int[] starts, String text, long position) {
+        int pos = (int) position;
+        while (pos < text.length() && Character.isWhitespace(text.charAt(pos))) pos++;
+        int k = Arrays.binarySearch(starts, pos);
         return (k >= 0 ? k : -k - 2) + 1;
     }
 

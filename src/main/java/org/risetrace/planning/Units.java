@@ -34,9 +34,9 @@ final class Units {
     }
 
     private static Unit base(String s) {
-        String b = BASES.get(s.toLowerCase(java.util.Locale.ROOT));
-        // "m" alone is not a unit we know; "M" and "m" as prefixes differ only in case, so bases are matched
-        // without case but prefixes with it
+        String b = BASES.containsKey(s) ? BASES.get(s) : BASES.get(s.toLowerCase(java.util.Locale.ROOT));
+        // bases are matched as written, then without case ("Ohm", "v"; the capital omega is looked up as written,
+        // its lower case is another letter); prefixes always with case ("m" milli, "M" mega)
         return b == null ? null : new Unit(b, 1.0);
     }
 }

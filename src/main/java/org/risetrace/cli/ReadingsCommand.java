@@ -52,7 +52,7 @@ public final class ReadingsCommand implements Callable<Integer> {
                     "value", "unit", "f_kHz", "L_uH", "median", "mod_z", "ideal", "ratio", "flag");
             for (BenchReadings.Row row : r.rows()) {
                 out.printf(Locale.ROOT, "%-4d %-18s %-8s %10s %-5s %8s %7s %9s %7s %9s %6s  %s%n", row.line(),
-                        cut(row.what(), 18), cut(row.where(), 8), g(row.value()), row.unit(),
+                        cut(row.what(), 18), cut(row.where(), 8), java.math.BigDecimal.valueOf(row.value()).stripTrailingZeros().toPlainString(), row.unit(),
                         row.frequencyHz() == null ? "" : g(row.frequencyHz() / 1000), g(row.inductanceUh()),
                         g(row.groupMedian()), row.modifiedZ() == null ? "" : String.format(Locale.ROOT, "%.1f", row.modifiedZ()),
                         g(row.expected()), g(row.ratioToExpected()), row.outlier() ? "OUTLIER" : "");
@@ -65,7 +65,7 @@ public final class ReadingsCommand implements Callable<Integer> {
     }
 
     private static String g(Double v) {
-        return v == null ? "" : String.format(Locale.ROOT, "%.4g", v).replaceAll("(\\.\\d*?)0+$", "$1").replaceAll("\\.$", "");
+        return v == null ? "" : String.format(Locale.ROOT, "%.3g", v).replaceAll("(\\.\\d*?)0+$", "$1").replaceAll("\\.$", "");
     }
 
     private static String cut(String s, int n) {

@@ -374,23 +374,23 @@ public final class ReportHtml {
         var in = p.inputs();
         h.append("<table class=\"params\"><tbody>\n");
         row(h, "Topology", in.topology().word() + (in.highRail() == null ? "" : ", from " + in.highRail() + " ("
-                + sig(in.highRailNominalV(), 3) + " V nominal) across the shorted switch") + " into " + in.rail()
-                + " (" + sig(in.railNominalV(), 3) + " V nominal)");
-        row(h, "Measured resistance", sig(in.measuredOhms(), 3) + " ohm" + (in.pathOhms() != null && in.pathOhms() > 0
-                ? " (" + sig(in.pathOhms(), 3) + " ohm outside the short)" : ""));
-        row(h, "Supply setting", sig(p.setVolts(), 3) + " V, current limit " + sig(p.currentLimitA(), 3) + " A ("
+                + num(in.highRailNominalV(), 3) + " V nominal) across the shorted switch") + " into " + in.rail()
+                + " (" + num(in.railNominalV(), 3) + " V nominal)");
+        row(h, "Measured resistance", num(in.measuredOhms(), 3) + " ohm" + (in.pathOhms() != null && in.pathOhms() > 0
+                ? " (" + num(in.pathOhms(), 3) + " ohm outside the short)" : ""));
+        row(h, "Supply setting", num(p.setVolts(), 3) + " V, current limit " + num(p.currentLimitA(), 3) + " A ("
                 + p.mode() + ")");
-        row(h, "Current", sig(p.currentA(), 3) + " A, " + sig(p.terminalV(), 3) + " V between the leads");
-        row(h, "Power", sig(p.shortPowerW(), 3) + " W in the short, " + sig(p.pathPowerW(), 3) + " W elsewhere");
+        row(h, "Current", num(p.currentA(), 3) + " A, " + num(p.terminalV(), 3) + " V between the leads");
+        row(h, "Power", num(p.shortPowerW(), 3) + " W in the short, " + num(p.pathPowerW(), 3) + " W elsewhere");
         for (InjectionPlan.RailVoltage v : p.rails())
-            row(h, v.rail() + " against ground", (v.volts() == null ? "unchanged" : sig(v.volts(), 3) + " V")
+            row(h, v.rail() + " against ground", (v.volts() == null ? "unchanged" : num(v.volts(), 3) + " V")
                     + ": " + v.note());
-        row(h, "Heating estimate", "about " + sig(p.heating().riseK(), 3) + " K after " + fixed(p.heating().afterS(), 0)
-                + " s (" + sig(p.heating().neededK(), 2) + " K shows clearly)");
+        row(h, "Heating estimate", "about " + num(p.heating().riseK(), 3) + " K after " + fixed(p.heating().afterS(), 0)
+                + " s (" + num(p.heating().neededK(), 2) + " K shows clearly)");
         InjectionPlan.Capture c = p.capture();
-        row(h, "Capture", "a frame every " + sig(c.frameIntervalS(), 3) + " s, " + fixed(c.baselineS(), 0)
+        row(h, "Capture", "a frame every " + num(c.frameIntervalS(), 3) + " s, " + fixed(c.baselineS(), 0)
                 + " s before switching on, " + fixed(c.durationS(), 0) + " s after; lock-in period "
-                + sig(c.lockInPeriodS(), 3) + " s, " + c.lockInCycles() + " periods");
+                + num(c.lockInPeriodS(), 3) + " s, " + c.lockInCycles() + " periods");
         h.append("</tbody></table>\n");
         if (p.warnings().isEmpty()) {
             h.append("<p class=\"blank\">The plan carried no warnings.</p>\n");
@@ -418,17 +418,26 @@ public final class ReportHtml {
                     .append("</td><td class=\"ref\">").append(esc(row.where())).append("</td><td>")
                     .append(java.math.BigDecimal.valueOf(row.value()).stripTrailingZeros().toPlainString()).append(' ').append(esc(row.unit())).append("</td><td>")
                     .append(esc(row.instrument())).append("</td><td>")
-                    .append(row.frequencyHz() == null ? "" : sig(row.frequencyHz() / 1000, 4)).append("</td><td>")
-                    .append(row.inductanceUh() == null ? "" : sig(row.inductanceUh(), 4)).append("</td><td>")
-                    .append(row.groupMedian() == null ? "" : sig(row.groupMedian(), 3) + " " + esc(row.unit()))
+                    .append(row.frequencyHz() == null ? "" : num(row.frequencyHz() / 1000, 4)).append("</td><td>")
+                    .append(row.inductanceUh() == null ? "" : num(row.inductanceUh(), 4)).append("</td><td>")
+                    .append(row.groupMedian() == null ? "" : num(row.groupMedian(), 3) + " " + esc(row.unit()))
                     .append("</td><td>").append(row.modifiedZ() == null ? "" : fixed(row.modifiedZ(), 1))
-                    .append("</td><td>").append(row.expected() == null ? "" : sig(row.expected(), 3) + " " + esc(row.unit()))
-                    .append("</td><td>").append(row.ratioToExpected() == null ? "" : sig(row.ratioToExpected(), 2))
+                    .append("</td><td>").append(row.expected() == null ? "" : num(row.expected(), 3) + " " + esc(row.unit()))
+                    .append("</td><td>").append(row.ratioToExpected() == null ? "" : num(row.ratioToExpected(), 2))
                     .append("</td><td>").append(row.outlier() ? "<strong>outlier</strong>" : "").append("</td></tr>\n");
         }
         h.append("</tbody></table>\n<p class=\"blank\">Like readings (same what, same unit) are compared by the "
                 + "modified z-score 0.6745 (x \u2212 median) / MAD; beyond 3.5 a reading is an outlier (Iglewicz and "
                 + "Hoaglin 1993). Ideal: the reactance 2\u03c0fL of the rated inductance.</p>\n</section>\n");
+    }
+
+    /** {@code digits} significant figures without trailing zeros (the planning sections' numbers); a dash when absent. */
+    static String num(Double v, int digits) {
+        if (v == null || !Double.isFinite(v)) return "\u2013";
+        if (v == 0) return "0";
+        String t = new java.math.BigDecimal(v).round(new java.math.MathContext(digits, java.math.RoundingMode.HALF_EVEN))
+                .stripTrailingZeros().toPlainString();
+        return t.startsWith("-") ? "\u2212" + t.substring(1) : t;
     }
 
     private static void row(StringBuilder h, String term, String value) {

@@ -65,7 +65,8 @@ public final class ReadingsCommand implements Callable<Integer> {
     }
 
     private static String g(Double v) {
-        return v == null ? "" : String.format(Locale.ROOT, "%.3g", v).replaceAll("(\\.\\d*?)0+$", "$1").replaceAll("\\.$", "");
+        if (v == null || !Double.isFinite(v)) return "";
+        return new java.math.BigDecimal(v).round(new java.math.MathContext(3)).stripTrailingZeros().toPlainString();
     }
 
     private static String cut(String s, int n) {

@@ -130,7 +130,7 @@ public record BenchReadings(@JsonProperty("file") String file, @JsonProperty("ro
                     + (impedance ? " at " + sig(r.frequencyHz() / 1000) + " kHz against " + sig(r.expected())
                     + " " + r.unit() + " for an ideal " + sig(r.inductanceUh()) + " uH"
                     : " against its rated " + sig(r.expected()) + " " + r.unit())
-                    + ": " + sig(r.ratioToExpected(), 2) + " x, "
+                    + ": " + sig(r.ratioToExpected(), 3) + " x, "
                     + (r.withinTolerance() ? "within" : "outside") + " the +/-" + (int) (INDUCTOR_TOLERANCE * 100)
                     + " % of a power inductor's rating");
         }

@@ -25,24 +25,30 @@ class ArchitectureTest {
     @Test
     void frameDependsOnNothingOfOurs() {
         mayNotUse("frame", "io", "calibration", "board", "registration", "analysis", "report", "sim", "cli", "web",
-                "archive", "batch");
+                "archive", "batch", "planning");
     }
 
     @Test
     void coreNeverDependsOnUserInterfaces() {
         for (String core : new String[]{"frame", "io", "calibration", "board", "registration", "analysis", "report",
-                "sim", "archive", "batch"})
+                "sim", "archive", "batch", "planning"})
             mayNotUse(core, "cli", "web");
     }
 
     @Test
     void earlyStagesDoNotReachDownstream() {
-        mayNotUse("io", "board", "registration", "analysis", "report", "sim");
-        mayNotUse("calibration", "io", "board", "registration", "analysis", "report", "sim");
-        mayNotUse("board", "io", "registration", "analysis", "report", "sim");
-        mayNotUse("registration", "io", "analysis", "report", "sim");
+        mayNotUse("io", "board", "registration", "analysis", "report", "sim", "planning");
+        mayNotUse("calibration", "io", "board", "registration", "analysis", "report", "sim", "planning");
+        mayNotUse("board", "io", "registration", "analysis", "report", "sim", "planning");
+        mayNotUse("registration", "io", "analysis", "report", "sim", "planning");
         mayNotUse("analysis", "report", "sim");
         mayNotUse("report", "sim");
+    }
+
+    @Test
+    void planningUsesOnlyFrameAndTheSidecar() {
+        // the planner and the bench readings come before the camera: nothing downstream of import
+        mayNotUse("planning", "calibration", "board", "registration", "analysis", "report", "sim", "archive", "batch");
     }
 
     @Test

@@ -18,4 +18,9 @@ import java.util.List;
  */
 public record Analysis(AnalysisResult result, Board board, List<RiseCurve> curves,
                        BoardMap riseMap, BoardMap onsetMap, BoardRaster lastFrame) {
+
+    /** This analysis with its series folder's bench readings in the result (null: none). */
+    public Analysis withBenchReadings(org.risetrace.planning.BenchReadings readings) {
+        return new Analysis(result.withBenchReadings(readings), board, curves, riseMap, onsetMap, lastFrame);
+    }
 }

@@ -1,8 +1,10 @@
 package org.risetrace.analysis;
 
+import com.fasterxml.jackson.annotation.JsonInclude;
 import com.fasterxml.jackson.annotation.JsonProperty;
 import com.fasterxml.jackson.annotation.JsonPropertyOrder;
 import org.risetrace.io.Sidecar;
+import org.risetrace.planning.BenchReadings;
 
 import java.util.List;
 import java.util.Map;
@@ -24,9 +26,10 @@ import java.util.Map;
  * @param parts       per part, in rank order
  * @param hotspots    local maxima of the rise map, hottest first
  * @param frames      every source frame with its hash and registration
+ * @param benchReadings the series folder's bench meter readings, assessed (null: the folder has none)
  */
 @JsonPropertyOrder({"schema", "tool", "version", "created_utc", "series", "board", "profile", "parameters",
-        "injection", "verdict", "parts", "hotspots", "frames"})
+        "injection", "verdict", "parts", "hotspots", "frames", "bench_readings"})
 public record AnalysisResult(
         @JsonProperty("schema") String schema,
         @JsonProperty("tool") String tool,
@@ -40,7 +43,22 @@ public record AnalysisResult(
         @JsonProperty("verdict") Verdict verdict,
         @JsonProperty("parts") List<PartResult> parts,
         @JsonProperty("hotspots") List<Hotspot> hotspots,
-        @JsonProperty("frames") List<FrameRecord> frames) {
+        @JsonProperty("frames") List<FrameRecord> frames,
+        @JsonInclude(JsonInclude.Include.NON_NULL) @JsonProperty("bench_readings") BenchReadings benchReadings) {
 
     public static final String SCHEMA = "risetrace-analysis/1";
+
+    /** A result without bench readings. */
+    public AnalysisResult(String schema, String tool, String version, String createdUtc, String series, String board,
+                          String profile, Map<String, Object> parameters, Sidecar.Injection injection, Verdict verdict,
+                          List<PartResult> parts, List<Hotspot> hotspots, List<FrameRecord> frames) {
+        this(schema, tool, version, createdUtc, series, board, profile, parameters, injection, verdict, parts,
+                hotspots, frames, null);
+    }
+
+    /** This result with the bench readings of its series folder. */
+    public AnalysisResult withBenchReadings(BenchReadings readings) {
+        return new AnalysisResult(schema, tool, version, createdUtc, series, board, profile, parameters, injection,
+                verdict, parts, hotspots, frames, readings);
+    }
 }

@@ -8,6 +8,10 @@ import org.risetrace.frame.Frame;
 import org.risetrace.frame.InputRejected;
 import org.risetrace.io.Series;
 import org.risetrace.io.Sidecar;
+import org.risetrace.planning.BenchReading;
+import org.risetrace.planning.BenchReadings;
+import org.risetrace.planning.ReadingsFile;
+import org.risetrace.planning.SeriesInjection;
 import org.risetrace.registration.BoardRaster;
 import org.risetrace.registration.FrameRegistration;
 import org.risetrace.registration.Homography;
@@ -17,6 +21,7 @@ import org.risetrace.registration.RegistrationConfig;
 import org.risetrace.registration.Registrars;
 
 import java.nio.file.Path;
+import java.util.List;
 
 /**
  * The analysis of a series folder or of a before/after pair, put together from the stages: the import stage's
@@ -55,6 +60,8 @@ public final class SeriesAnalyzer {
         for (int i = 0; i < times.length; i++) times[i] = series.tSeconds(i);
         Sidecar sidecar = series.sidecar() == null ? Sidecar.empty() : series.sidecar();
         Sidecar.Injection injection = sidecar.injection();
+        SeriesInjection.planOf(injection, series.folder().resolve(org.risetrace.io.Sidecars.FILE_NAME)); // checked once here
+        BenchReadings readings = benchReadings(series.folder());
         BaselinePlan plan = BaselinePlan.plan(times, injection == null ? null : injection.startS(),
                 options.baselineFrames(), options.lastFrames());
         AmbientSampler probe = AmbientSampler.forBoard(board, options.ambientGapMm(), options.ambientBandMm());
@@ -70,7 +77,14 @@ public final class SeriesAnalyzer {
         };
         return Analyzer.run(source, board, () -> mapper(registrar, rectifier),
                 () -> AmbientSampler.forBoard(board, options.ambientGapMm(), options.ambientBandMm()), sa, threads,
-                progress);
+                progress).withBenchReadings(readings);
+    }
+
+    /** The folder's readings.csv, assessed; null when there is none (planning stage, {@link ReadingsFile}). */
+    static BenchReadings benchReadings(Path folder) {
+        if (folder == null) return null;
+        List<BenchReading> list = ReadingsFile.readIfPresent(folder);
+        return list == null ? null : BenchReadings.assess(folder.resolve(ReadingsFile.FILE_NAME).toString(), list);
     }
 
     /** Compares two frames; the board outline is marked on one of them (or on a frame that looks like them). */

@@ -19,6 +19,7 @@ import picocli.CommandLine.Command;
                 CompareCommand.class,
                 DemoCommand.class,
                 CalibrateCommand.class,
+                PlanCommand.class, ReadingsCommand.class,
                 CommandLine.HelpCommand.class})
 public final class Main implements Runnable {
     public static final int EXIT_OK = 0;

@@ -36,6 +36,9 @@ import java.util.stream.Stream;
  * matrix-celsius) with a warning saying so.
  */
 public final class Series implements Iterable<Frame> {
+    /** The bench meter readings beside the frames (read by the planning stage); never taken as a CSV frame. */
+    public static final String BENCH_READINGS_FILE = "readings.csv";
+
     private final Path folder;
     private final Path sidecarFile;
     private final Sidecar sidecar;
@@ -115,6 +118,7 @@ public final class Series implements Iterable<Frame> {
                 continue;
             }
             if (lower.endsWith(".json")) continue; // board, truth and registration files belong to other stages
+            if (lower.equals(BENCH_READINGS_FILE)) continue; // meter readings (planning stage), not a CSV frame
             if (FrameReaders.isImageFile(p)) frames.add(p);
             else warnings.add("skipped " + name + ": not a frame file");
         }

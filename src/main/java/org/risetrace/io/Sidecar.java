@@ -2,6 +2,7 @@ package org.risetrace.io;
 
 import com.fasterxml.jackson.annotation.JsonInclude;
 import com.fasterxml.jackson.annotation.JsonProperty;
+import com.fasterxml.jackson.databind.JsonNode;
 
 import java.util.Map;
 
@@ -50,6 +51,8 @@ public record Sidecar(
      * @param currentLimitA supply current limit in amperes
      * @param supply        supply model, free text
      * @param notes         free text
+     * @param plan          the injection plan {@code risetrace plan --write-series} worked out (a JSON object; its
+     *                      fields are checked by the planning stage, {@code org.risetrace.planning.SeriesInjection})
      */
     @JsonInclude(JsonInclude.Include.NON_NULL)
     public record Injection(
@@ -59,6 +62,13 @@ public record Sidecar(
             @JsonProperty("volts") Double volts,
             @JsonProperty("current_limit_a") Double currentLimitA,
             @JsonProperty("supply") String supply,
-            @JsonProperty("notes") String notes) {
+            @JsonProperty("notes") String notes,
+            @JsonProperty("plan") JsonNode plan) {
+
+        /** An injection record without a plan. */
+        public Injection(Double startS, String fromRail, String toRail, Double volts, Double currentLimitA,
+                         String supply, String notes) {
+            this(startS, fromRail, toRail, volts, currentLimitA, supply, notes, null);
+        }
     }
 }

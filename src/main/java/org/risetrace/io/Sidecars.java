@@ -82,6 +82,8 @@ public final class Sidecars {
                 throw new InputRejected(file, "field 'injection.volts' must be a non-negative number");
             if (inj.currentLimitA() != null && !(inj.currentLimitA() > 0 && Double.isFinite(inj.currentLimitA())))
                 throw new InputRejected(file, "field 'injection.current_limit_a' must be a positive number of amperes");
+            if (inj.plan() != null && !inj.plan().isObject())
+                throw new InputRejected(file, "field 'injection.plan' must be a JSON object (written by risetrace plan)");
         }
         return s;
     }

@@ -14,6 +14,11 @@ import org.risetrace.analysis.VerdictStatus;
 import org.risetrace.board.Board;
 import org.risetrace.board.Part;
 import org.risetrace.io.Sidecar;
+import org.risetrace.frame.InputRejected;
+import org.risetrace.planning.BenchReadings;
+import org.risetrace.planning.InjectionPlan;
+import org.risetrace.planning.PlanWarning;
+import org.risetrace.planning.SeriesInjection;
 import org.risetrace.registration.BoardRaster;
 
 import java.io.IOException;
@@ -300,6 +305,8 @@ public final class ReportHtml {
             h.append("</dl>\n");
         }
         h.append("</section>\n");
+        injectionPlanSection(h, r);
+        benchReadingsSection(h, r);
 
         // registration and frames
         h.append("<section><h2>Registration and source frames</h2>\n");
@@ -348,6 +355,91 @@ public final class ReportHtml {
                 .append(esc(r.schema())).append(". The numbers behind this page are in analysis.json and parts.csv ")
                 .append("beside it.</p></footer>\n</main>\n</body>\n</html>\n");
         return h.toString();
+    }
+
+    /** The injection plan of the series' injection record (risetrace plan --write-series), when it has one. */
+    static void injectionPlanSection(StringBuilder h, AnalysisResult r) {
+        if (r.injection() == null || r.injection().plan() == null) return;
+        h.append("<section class=\"plan\"><h2>Injection plan</h2>\n");
+        InjectionPlan p;
+        try {
+            p = SeriesInjection.planOf(r.injection(), null);
+        } catch (InputRejected e) {
+            h.append("<p class=\"blank\">The series' injection plan cannot be read: ").append(esc(e.reason()))
+                    .append("</p>\n</section>\n");
+            return;
+        }
+        var in = p.inputs();
+        h.append("<table class=\"params\"><tbody>\n");
+        row(h, "Topology", in.topology().word() + (in.highRail() == null ? "" : ", from " + in.highRail() + " ("
+                + num(in.highRailNominalV(), 3) + " V nominal) across the shorted switch") + " into " + in.rail()
+                + " (" + num(in.railNominalV(), 3) + " V nominal)");
+        row(h, "Measured resistance", num(in.measuredOhms(), 3) + " ohm" + (in.pathOhms() != null && in.pathOhms() > 0
+                ? " (" + num(in.pathOhms(), 3) + " ohm outside the short)" : ""));
+        row(h, "Supply setting", num(p.setVolts(), 3) + " V, current limit " + num(p.currentLimitA(), 3) + " A ("
+                + p.mode() + ")");
+        row(h, "Current", num(p.currentA(), 3) + " A, " + num(p.terminalV(), 3) + " V between the leads");
+        row(h, "Power", num(p.shortPowerW(), 3) + " W in the short, " + num(p.pathPowerW(), 3) + " W elsewhere");
+        for (InjectionPlan.RailVoltage v : p.rails())
+            row(h, v.rail() + " against ground", (v.volts() == null ? "unchanged" : num(v.volts(), 3) + " V")
+                    + ": " + v.note());
+        row(h, "Heating estimate", "about " + num(p.heating().riseK(), 3) + " K after " + fixed(p.heating().afterS(), 0)
+                + " s (" + num(p.heating().neededK(), 2) + " K shows clearly)");
+        InjectionPlan.Capture c = p.capture();
+        row(h, "Capture", "a frame every " + num(c.frameIntervalS(), 3) + " s, " + fixed(c.baselineS(), 0)
+                + " s before switching on, " + fixed(c.durationS(), 0) + " s after; lock-in period "
+                + num(c.lockInPeriodS(), 3) + " s, " + c.lockInCycles() + " periods");
+        h.append("</tbody></table>\n");
+        if (p.warnings().isEmpty()) {
+            h.append("<p class=\"blank\">The plan carried no warnings.</p>\n");
+        } else {
+            h.append("<ul class=\"plan-warnings\">\n");
+            for (PlanWarning w : p.warnings())
+                h.append("<li class=\"sev-").append(esc(w.severity())).append("\"><strong>").append(esc(w.code().word()))
+                        .append("</strong> (").append(esc(w.severity())).append("): ").append(esc(w.message())).append("</li>\n");
+            h.append("</ul>\n");
+        }
+        h.append("</section>\n");
+    }
+
+    /** The series folder's bench meter readings (readings.csv), outliers highlighted, when there are any. */
+    static void benchReadingsSection(StringBuilder h, AnalysisResult r) {
+        BenchReadings b = r.benchReadings();
+        if (b == null) return;
+        h.append("<section class=\"readings\"><h2>Bench readings</h2>\n");
+        for (String f : b.findings()) h.append("<p class=\"finding\">").append(esc(f)).append("</p>\n");
+        h.append("<table class=\"readings\">\n<thead><tr><th>what</th><th>where</th><th>reading</th><th>instrument</th>")
+                .append("<th>f (kHz)</th><th>L (\u00b5H)</th><th>group median</th><th>modified z</th>")
+                .append("<th>ideal</th><th>ratio</th><th></th></tr></thead>\n<tbody>\n");
+        for (BenchReadings.Row row : b.rows()) {
+            h.append(row.outlier() ? "<tr class=\"outlier-row\">" : "<tr>").append("<td>").append(esc(row.what()))
+                    .append("</td><td class=\"ref\">").append(esc(row.where())).append("</td><td>")
+                    .append(java.math.BigDecimal.valueOf(row.value()).stripTrailingZeros().toPlainString()).append(' ').append(esc(row.unit())).append("</td><td>")
+                    .append(esc(row.instrument())).append("</td><td>")
+                    .append(row.frequencyHz() == null ? "" : num(row.frequencyHz() / 1000, 4)).append("</td><td>")
+                    .append(row.inductanceUh() == null ? "" : num(row.inductanceUh(), 4)).append("</td><td>")
+                    .append(row.groupMedian() == null ? "" : num(row.groupMedian(), 3) + " " + esc(row.unit()))
+                    .append("</td><td>").append(row.modifiedZ() == null ? "" : fixed(row.modifiedZ(), 1))
+                    .append("</td><td>").append(row.expected() == null ? "" : num(row.expected(), 3) + " " + esc(row.unit()))
+                    .append("</td><td>").append(row.ratioToExpected() == null ? "" : num(row.ratioToExpected(), 2))
+                    .append("</td><td>").append(row.outlier() ? "<strong>outlier</strong>" : "").append("</td></tr>\n");
+        }
+        h.append("</tbody></table>\n<p class=\"blank\">Like readings (same what, same unit) are compared by the "
+                + "modified z-score 0.6745 (x \u2212 median) / MAD; beyond 3.5 a reading is an outlier (Iglewicz and "
+                + "Hoaglin 1993). Ideal: the reactance 2\u03c0fL of the rated inductance.</p>\n</section>\n");
+    }
+
+    /** {@code digits} significant figures without trailing zeros (the planning sections' numbers); a dash when absent. */
+    static String num(Double v, int digits) {
+        if (v == null || !Double.isFinite(v)) return "\u2013";
+        if (v == 0) return "0";
+        String t = new java.math.BigDecimal(v).round(new java.math.MathContext(digits, java.math.RoundingMode.HALF_EVEN))
+                .stripTrailingZeros().toPlainString();
+        return t.startsWith("-") ? "\u2212" + t.substring(1) : t;
+    }
+
+    private static void row(StringBuilder h, String term, String value) {
+        h.append("<tr><th>").append(esc(term)).append("</th><td>").append(esc(value)).append("</td></tr>\n");
     }
 
     private static void summary(StringBuilder h, List<FrameRecord> frames) {
@@ -522,6 +614,9 @@ public final class ReportHtml {
             ".ref { font-weight: bold; }",
             "tr.leader td { background: #e3f1ea; }",
             "tr.unmarked-row td { background: #fff4d6; }",
+            "tr.outlier-row td { background: #f6dede; }",
+            ".finding { margin: 4px 0; font-weight: bold; }",
+            "ul.plan-warnings li.sev-stop { color: #8a1f1f; font-weight: bold; }",
             "td.warn { color: #8a4b00; }",
             "table.frames { font-size: 12px; }",
             "td.hash { font-family: \"DejaVu Sans Mono\", \"Liberation Mono\", monospace; font-size: 10px; white-space: nowrap; }",
@@ -539,7 +634,7 @@ public final class ReportHtml {
             "  table.frames { font-size: 7.5pt; }",
             "  td.hash { font-size: 6.2pt; }",
             "  table.ranking { font-size: 8pt; }",
-            "  .verdict, tr.leader td, tr.unmarked-row td, tr.st-weak td, tr.st-failed td, thead th {",
+            "  .verdict, tr.leader td, tr.unmarked-row td, tr.outlier-row td, tr.st-weak td, tr.st-failed td, thead th {",
             "    -webkit-print-color-adjust: exact; print-color-adjust: exact; }",
             "}",
             "");

@@ -50,6 +50,9 @@ public record Sidecar(
      * @param currentLimitA supply current limit in amperes
      * @param supply        supply model, free text
      * @param notes         free text
+     * @param periodS       periodic (lock-in) injection: seconds from one switch-on to the next; the first switch-on
+     *                      is {@code startS} (0 when absent)
+     * @param onS           periodic injection: seconds on in each period (default: half the period)
      */
     @JsonInclude(JsonInclude.Include.NON_NULL)
     public record Injection(
@@ -59,6 +62,20 @@ public record Sidecar(
             @JsonProperty("volts") Double volts,
             @JsonProperty("current_limit_a") Double currentLimitA,
             @JsonProperty("supply") String supply,
-            @JsonProperty("notes") String notes) {
+            @JsonProperty("notes") String notes,
+            @JsonProperty("period_s") Double periodS,
+            @JsonProperty("on_s") Double onS) {
+
+        /** A steady (step) injection record, without period. */
+        public Injection(Double startS, String fromRail, String toRail, Double volts, Double currentLimitA,
+                         String supply, String notes) {
+            this(startS, fromRail, toRail, volts, currentLimitA, supply, notes, null, null);
+        }
+
+        /** True when the record describes a periodic (lock-in) injection. */
+        @com.fasterxml.jackson.annotation.JsonIgnore
+        public boolean periodic() {
+            return periodS != null;
+        }
     }
 }

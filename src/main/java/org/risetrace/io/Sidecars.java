@@ -82,6 +82,13 @@ public final class Sidecars {
                 throw new InputRejected(file, "field 'injection.volts' must be a non-negative number");
             if (inj.currentLimitA() != null && !(inj.currentLimitA() > 0 && Double.isFinite(inj.currentLimitA())))
                 throw new InputRejected(file, "field 'injection.current_limit_a' must be a positive number of amperes");
+            if (inj.periodS() != null && !(inj.periodS() > 0 && Double.isFinite(inj.periodS())))
+                throw new InputRejected(file, "field 'injection.period_s' must be a positive number of seconds");
+            if (inj.onS() != null && inj.periodS() == null)
+                throw new InputRejected(file, "field 'injection.on_s' needs 'injection.period_s'",
+                        "give the period of the periodic injection too");
+            if (inj.onS() != null && !(inj.onS() > 0 && inj.onS() < inj.periodS()))
+                throw new InputRejected(file, "field 'injection.on_s' must lie between 0 and period_s (exclusive)");
         }
         return s;
     }

@@ -232,7 +232,7 @@ public final class LockInAnalysis implements Consumer<FrameSample> {
         double aSecond = second.amplitudeK() * highScale[1], seSecond = second.amplitudeSeK() * highScale[1];
         double sep = (aLead - aSecond) / Math.hypot(seLead, seSecond);
         if (sep >= sepMin) {
-            Double dPhase = phaseLead(second, lead);
+            Double dPhase = phaseLead(second, lead, k);
             if (dPhase != null && dPhase > sepMin)
                 return new Verdict(VerdictStatus.INCONCLUSIVE, lead.ref(), null, second.ref(), sep,
                         lead.ref() + " has the highest amplitude (" + amp(lead) + ") but " + second.ref()
@@ -250,12 +250,13 @@ public final class LockInAnalysis implements Consumer<FrameSample> {
             if (r == 0 || s < sepMin) level.add(q);
         }
         LockInPart earliest = null;
-        for (LockInPart q : level) if (earliest == null || q.lagDeg() < earliest.lagDeg()) earliest = q;
+        for (LockInPart q : level)
+            if (sourceLike(q, k) && (earliest == null || q.lagDeg() < earliest.lagDeg())) earliest = q;
         double minLead = Double.POSITIVE_INFINITY;
         LockInPart closest = null;
         for (LockInPart q : level) {
             if (q == earliest) continue;
-            Double d = phaseLead(earliest, q);
+            Double d = phaseLead(earliest, q, k);
             double dv = d == null ? Double.NEGATIVE_INFINITY : d;
             if (dv < minLead) {
                 minLead = dv;
@@ -274,9 +275,24 @@ public final class LockInAnalysis implements Consumer<FrameSample> {
                         + "them; capture more periods");
     }
 
-    /** How far a leads b in phase (b's lag minus a's, wrapped), in combined phase errors; null without phases. */
-    static Double phaseLead(LockInPart a, LockInPart b) {
+    /**
+     * True when a part's lag is one a heat source can have: a body heated directly lags its power's fundamental by 0
+     * to 90 degrees (a first-order response; Breitenstein, Warta and Langenkamp, Lock-in Thermography, chapter 4),
+     * here widened by {@code k} standard errors of the lag. Heat conducted from elsewhere lags more, and past 180
+     * degrees the lag wraps round and would look like a lead.
+     */
+    static boolean sourceLike(LockInPart p, double k) {
+        if (p.lagDeg() == null || p.lagSeDeg() == null) return false;
+        return p.lagDeg() >= -k * p.lagSeDeg() && p.lagDeg() <= 90 + k * p.lagSeDeg();
+    }
+
+    /**
+     * How far a leads b in phase (b's lag minus a's, wrapped), in combined phase errors; null without phases or when
+     * a's lag is not one a source can have ({@link #sourceLike}).
+     */
+    static Double phaseLead(LockInPart a, LockInPart b, double k) {
         if (a.lagDeg() == null || b.lagDeg() == null || a.lagSeDeg() == null || b.lagSeDeg() == null) return null;
+        if (!sourceLike(a, k)) return null;
         double d = b.lagDeg() - a.lagDeg();
         d -= 360 * Math.floor((d + 180) / 360);
         double se = Math.hypot(a.lagSeDeg(), b.lagSeDeg());

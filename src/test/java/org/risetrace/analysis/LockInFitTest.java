@@ -165,6 +165,10 @@ class LockInFitTest {
         // the highest amplitude lags the runner-up clearly: amplitude and phase disagree, inconclusive
         v = decide(List.of(part("Q3", 0.080, 0.002, 90.0, 1.5), part("C5", 0.040, 0.002, 20.0, 3.0)));
         assertEquals(VerdictStatus.INCONCLUSIVE, v.status());
+        // a part far out lags by more than 180 degrees, which wraps to -129: that is no lead over the source
+        v = decide(List.of(part("C9", 0.60, 0.011, 50.0, 1.1), part("R2", 0.010, 0.003, -129.4, 16.2)));
+        assertEquals(VerdictStatus.IDENTIFIED, v.status());
+        assertEquals("C9", v.ref());
         // nothing above 3 standard errors
         List<LockInPart> weak = new ArrayList<>(List.of(part("Q3", 0.004, 0.002, null, null), part("C5", 0.002, 0.002, null, null)));
         assertEquals(VerdictStatus.NO_HEATING, decide(weak).status());

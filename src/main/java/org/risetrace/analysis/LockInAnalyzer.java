@@ -23,6 +23,8 @@ import java.util.concurrent.Future;
 public final class LockInAnalyzer {
     /** Fewest whole periods a lock-in analysis accepts. */
     public static final int MIN_PERIODS = 2;
+    /** Largest chance that noise alone makes the spectrum's peak, for a period found from the spectrum. */
+    static final double FALSE_ALARM = 1e-3;
 
     private LockInAnalyzer() {
     }
@@ -61,8 +63,9 @@ public final class LockInAnalyzer {
      * lock-in (quadratic trend, cosine and sine on the frames' own times: the generalised Lomb-Scargle periodogram,
      * Zechmeister and Kuerster 2009, A&amp;A 496, 577) and its power (amplitude / standard error)^2 / 2, which white
      * noise alone spreads as an exponential of mean 1. The highest peak between 3 periods per series and 2.5 frames
-     * per period, refined by a parabola, is taken when noise alone would reach it with a chance under 1 % over all
-     * trial frequencies (Scargle 1982, ApJ 263, 835). The phase reference is then unknown: the first switch-on is
+     * per period, refined by a parabola, is taken when noise alone would reach it with a chance under 0.1 % over all
+     * trial frequencies (Scargle 1982, ApJ 263, 835), the powers first scaled by their median over ln 2 (the
+     * median of white noise's powers) so that correlated noise does not pass for a period. The phase reference is then unknown: the first switch-on is
      * taken at the injection start (else the first frame) with half the period on, so only phase differences
      * between parts mean anything.
      */
@@ -111,7 +114,7 @@ public final class LockInAnalyzer {
 
     /**
      * {period, peak power, chance of noise reaching it} of the strongest periodic component of y(t) after t0, or null
-     * when noise alone would reach the peak with a chance of 1 % or more.
+     * when noise alone would reach the peak with a chance of {@link #FALSE_ALARM} or more.
      */
     static double[] strongestPeriod(double[] t, double[] y, double t0) {
         int first = 0;
@@ -131,15 +134,22 @@ public final class LockInAnalyzer {
         int count = (int) Math.floor((fHi - fLo) / df) + 1;
         double[] power = new double[count];
         for (int k = 0; k < count; k++) power[k] = power(tt, yy, fLo + k * df, total);
+        // white noise spreads the power as an exponential of mean 1 (median ln 2); frame-to-frame correlation
+        // (camera drift, a board edge moving in and out of the outline) raises the whole floor, so the powers are
+        // scaled by their median first
+        double[] sorted = power.clone();
+        java.util.Arrays.sort(sorted);
+        double floor = sorted[count / 2] / Math.log(2);
+        if (!(floor > 0)) return null;
         int best = 0;
         for (int k = 1; k < count; k++) if (power[k] > power[best]) best = k;
         double shift = best > 0 && best < count - 1
                 ? Hotspots.vertex((float) power[best - 1], (float) power[best], (float) power[best + 1]) : 0;
         double f = fLo + (best + shift) * df;
-        double peak = power(tt, yy, f, total);
+        double peak = power(tt, yy, f, total) / Math.max(1, floor);
         double independent = Math.max(1, (fHi - fLo) * total);
         double chance = 1 - Math.pow(1 - Math.exp(-peak), independent);
-        if (!(chance < 0.01)) return null;
+        if (!(chance < FALSE_ALARM)) return null;
         return new double[]{1 / f, peak, chance};
     }
 

@@ -164,11 +164,14 @@ public final class LockInAnalysis implements Consumer<FrameSample> {
             rh[r] = highScale[order[r]];
         }
 
-        // maps: amplitude, and the lag where the pixel's amplitude is significant
+        // maps: amplitude, and the lag where the pixel's amplitude is significant: at the hot spot threshold, not at
+        // k, since noise alone exceeds 3 standard errors in about 1 % of pixels (Rayleigh tail exp(-k^2 / 2)), which
+        // on a map of thousands of pixels scatters dozens of meaningless phases; at 5, 4e-6
         float[] lag = px.lagDeg().clone();
         float[] se = px.amplitudeSe();
+        double kMap = Math.max(k, options.hotspotKSigma());
         for (int i = 0; i < lag.length; i++)
-            if (!(px.amplitude()[i] >= k * se[i])) lag[i] = Float.NaN;
+            if (!(px.amplitude()[i] >= kMap * se[i])) lag[i] = Float.NaN;
         BoardMap ampMap = new BoardMap(px.width(), px.height(), px.pxPerMm(), px.amplitude(), "K");
         BoardMap lagMap = new BoardMap(px.width(), px.height(), px.pxPerMm(), lag, "deg");
         double sigmaBoardPx = Double.isFinite(framePxPerMm) && framePxPerMm > 0

@@ -168,10 +168,10 @@ public final class LockInReport {
             figure(h, Plots.mapPng(grid(lag, boardW, boardH), new Plots.Shading(ColourMaps.TIDE, range[0],
                             Math.max(range[1], range[0] + 1), true, "lag behind the excitation (\u00b0)"), parts, null),
                     "Lock-in phase map", "Phase lag behind the excitation (" + ColourMaps.TIDE.word() + " colour map, "
-                            + "least lag lightest), where the amplitude is at least 3 standard errors; hatched "
-                            + "elsewhere. Heat spreading from the source arrives later, so the source lags least.");
+                            + "least lag lightest), where the amplitude is at least 5 standard errors (at 3, noise alone "
+                            + "would pass in 1 % of the pixels); hatched elsewhere. Heat spreading from the source arrives later, so the source lags least.");
         } else if (lag != null) {
-            h.append("<p class=\"blank\">Phase map: no board point follows the excitation above 3 standard errors.</p>\n");
+            h.append("<p class=\"blank\">Phase map: no board point follows the excitation above 5 standard errors.</p>\n");
         }
         h.append("</section>\n");
 

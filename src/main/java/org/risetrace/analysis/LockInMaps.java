@@ -49,6 +49,10 @@ public final class LockInMaps {
         int n = squares.length;
         final double[] bb = b;
         final int mm = m;
+        if (mm == 5) {
+            addFive(celsius, valid);
+            return;
+        }
         for (int k = 0; k < n; k++) {
             float v = celsius[k];
             if ((valid != null && !valid[k]) || Float.isNaN(v)) continue;
@@ -62,6 +66,35 @@ public final class LockInMaps {
             for (int r = 0; r < mm; r++) sums[base + r] += y * bb[r];
             squares[k] += y * y;
             count[k]++;
+        }
+    }
+
+    /**
+     * The same for the default model (trend of degree 2: 1, u, u^2, cos, sin), unrolled: the loop over the basis
+     * with a variable length cost about 3 ms per 640 x 512 frame on the caller's thread, this about a quarter of it.
+     */
+    private void addFive(float[] celsius, boolean[] valid) {
+        final double b1 = b[1], b2 = b[2], b3 = b[3], b4 = b[4]; // b[0] = 1
+        final double[] s = sums, sq = squares;
+        final float[] off = offset;
+        final int[] cnt = count;
+        int n = sq.length;
+        for (int k = 0, base = 0; k < n; k++, base += 5) {
+            float v = celsius[k];
+            if ((valid != null && !valid[k]) || v != v) continue;
+            float o = off[k];
+            if (o != o) {
+                off[k] = v;
+                o = v;
+            }
+            double y = v - o;
+            s[base] += y;
+            s[base + 1] += y * b1;
+            s[base + 2] += y * b2;
+            s[base + 3] += y * b3;
+            s[base + 4] += y * b4;
+            sq[k] += y * y;
+            cnt[k]++;
         }
     }
 

@@ -69,6 +69,59 @@ class LockInDemoTest {
         assertTrue(r.out().contains("mode: steady"), r.out());
     }
 
+    /** A copy of a simulated series whose series.json has no period (the injection's timing is not recorded). */
+    static Path withoutPeriod(Path series, Path dir) throws IOException {
+        Path s = dir.resolve("no-period");
+        Files.createDirectories(s);
+        try (var files = Files.list(series)) {
+            for (Path f : (Iterable<Path>) files::iterator)
+                if (f.getFileName().toString().endsWith(".png") || f.getFileName().toString().equals("board.json"))
+                    Files.copy(f, s.resolve(f.getFileName()));
+        }
+        ObjectMapper json = new ObjectMapper();
+        com.fasterxml.jackson.databind.node.ObjectNode sidecar =
+                (com.fasterxml.jackson.databind.node.ObjectNode) json.readTree(series.resolve("series.json").toFile());
+        com.fasterxml.jackson.databind.node.ObjectNode injection =
+                (com.fasterxml.jackson.databind.node.ObjectNode) sidecar.get("injection");
+        injection.remove("period_s");
+        injection.remove("on_s");
+        json.writeValue(s.resolve("series.json").toFile(), sidecar);
+        return s;
+    }
+
+    @Test
+    void periodIsFoundFromTheSpectrumWhenTheSourceMovesTheBoardMean(@TempDir Path dir) throws IOException {
+        // the demo board at 50 mW: the board's mean temperature swings by about 5 mK at the fundamental (heat
+        // capacity of the board about 7 J/K: P1 / (omega C)), well above its noise (0.05 K / sqrt(pixels))
+        org.risetrace.sim.Scenario sc = org.risetrace.sim.Scenario.read(SERIES.resolve("scenario.json")).withPower(0.05)
+                .withFrames(96, 0.5, 2.0); // 5 whole periods
+        org.risetrace.sim.SimulationOutput sim = org.risetrace.sim.Simulator.run(sc, dir.resolve("sim"));
+        Path s = withoutPeriod(sim.directory(), dir);
+        InspectCommandTest.Result auto = InspectCommandTest.run("analyze", s.toString(), "--out", dir.resolve("a").toString());
+        assertTrue(auto.out().contains("mode: steady"), "no period in series.json: steady by default");
+        InspectCommandTest.Result r = InspectCommandTest.run("analyze", s.toString(), "--mode", "lock-in", "--out",
+                dir.resolve("o").toString());
+        assertEquals(Main.EXIT_OK, r.code(), r.err());
+        assertTrue(r.out().contains("(found from the spectrum)"), r.out());
+        assertTrue(r.out().startsWith("no-period: identified C9 "), r.out());
+        JsonNode ex = new ObjectMapper().readTree(dir.resolve("o/analysis.json").toFile()).get("lock_in").get("excitation");
+        // the periodogram's resolution: about period^2 / (5 x series length) = 0.2 s, refined by a parabola
+        assertEquals(8.0, ex.get("period_s").asDouble(), 0.1);
+        assertTrue(ex.get("source").asText().contains("only phase differences between parts are meaningful"));
+    }
+
+    @Test
+    void aSourceTooWeakForTheBoardMeanLeavesThePeriodToTheSidecar(@TempDir Path dir) throws IOException {
+        // at 2 mW the board mean swings by about 0.2 mK against a noise of about 0.06 mK per fitted amplitude: a
+        // peak that noise reaches too often over about 50 independent trial frequencies; refused, asking for the
+        // period
+        InspectCommandTest.Result r = InspectCommandTest.run("analyze", withoutPeriod(SERIES, dir).toString(),
+                "--mode", "lock-in", "--out", dir.resolve("o").toString());
+        assertEquals(Main.EXIT_INPUT_REJECTED, r.code(), r.out());
+        assertTrue(r.err().contains("no periodic heating found") && r.err().contains("injection.period_s"), r.err());
+        assertEquals(1, r.err().strip().lines().count(), r.err());
+    }
+
     @Test
     void tooFewPeriodsIsRefusedInOneLine(@TempDir Path dir) throws IOException {
         Path s = dir.resolve("short");

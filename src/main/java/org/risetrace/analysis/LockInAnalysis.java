@@ -57,11 +57,39 @@ public final class LockInAnalysis implements Consumer<FrameSample> {
      * {@code on_s} (half the period when absent).
      */
     public static Excitation excitation(Sidecar.Injection injection) {
+        if (injection.switchS() != null) return fromSwitching(injection.switchS());
         double period = injection.periodS();
         double on = injection.onS() != null ? injection.onS() : period / 2;
         double start = injection.startS() != null ? injection.startS() : 0.0;
         return new Excitation(period, on, start, "series.json (injection.period_s"
                 + (injection.onS() != null ? ", on_s" : "; on for half the period, assumed") + ")");
+    }
+
+    /** Largest departure of a recorded switching time from the fixed period, as a fraction of the period. */
+    static final double SWITCH_TOLERANCE = 0.02;
+
+    /**
+     * The excitation recorded as switching times (on, off, on, off, ...): period = (last on - first on) / (ons - 1),
+     * on time = the mean of the on intervals. Lock-in correlates with one frequency, so every switching time must lie
+     * within 2 % of the period of where that fixed period puts it (7 degrees of phase); else
+     * IllegalArgumentException with the reason.
+     */
+    static Excitation fromSwitching(double[] sw) {
+        int ons = (sw.length + 1) / 2, offs = sw.length / 2;
+        double period = (sw[2 * (ons - 1)] - sw[0]) / (ons - 1);
+        double on = 0;
+        for (int i = 0; i < offs; i++) on += (sw[2 * i + 1] - sw[2 * i]) / offs;
+        for (int i = 0; i < sw.length; i++) {
+            double expected = sw[0] + (i / 2) * period + (i % 2 == 1 ? on : 0);
+            if (Math.abs(sw[i] - expected) > SWITCH_TOLERANCE * period)
+                throw new IllegalArgumentException(String.format(Locale.ROOT, "injection.switch_s: switching time %d "
+                                + "(%.3f s) is %.3f s off a fixed period of %.4g s; lock-in needs a steady period "
+                                + "(within %.0f %%)", i + 1, sw[i], sw[i] - expected, period, 100 * SWITCH_TOLERANCE));
+        }
+        if (!(on > 0 && on < period))
+            throw new IllegalArgumentException("injection.switch_s: the on intervals do not fit inside the period");
+        return new Excitation(period, on, sw[0], String.format(Locale.ROOT, "series.json (injection.switch_s: %d "
+                + "switching times, period %.4g s, on %.4g s)", sw.length, period, on));
     }
 
     @Override

@@ -41,8 +41,14 @@ public final class LockInAnalyzer {
         if (series.size() == 0) throw new InputRejected(series.folder(), "the series has no frames");
         double[] times = new double[series.size()];
         for (int i = 0; i < times.length; i++) times[i] = series.tSeconds(i);
-        Excitation excitation = periodic(series) ? LockInAnalysis.excitation(series.sidecar().injection())
-                : periodFromSpectrum(series, board, threads);
+        Excitation excitation;
+        try {
+            excitation = periodic(series) ? LockInAnalysis.excitation(series.sidecar().injection())
+                    : periodFromSpectrum(series, board, threads);
+        } catch (IllegalArgumentException e) {
+            throw new InputRejected(series.folder().resolve("series.json"), e.getMessage(),
+                    "record the switching of a timer-driven supply or switch");
+        }
         Excitation.Window window = excitation.window(times);
         if (window.periods() < MIN_PERIODS)
             throw new InputRejected(series.folder(), String.format(Locale.ROOT,

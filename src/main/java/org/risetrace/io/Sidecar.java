@@ -53,6 +53,8 @@ public record Sidecar(
      * @param periodS       periodic (lock-in) injection: seconds from one switch-on to the next; the first switch-on
      *                      is {@code startS} (0 when absent)
      * @param onS           periodic injection: seconds on in each period (default: half the period)
+     * @param switchS       periodic injection as recorded instead: the switching times in series seconds, on, off,
+     *                      on, off, ... (a logging supply or switch); they must keep one period
      */
     @JsonInclude(JsonInclude.Include.NON_NULL)
     public record Injection(
@@ -64,18 +66,19 @@ public record Sidecar(
             @JsonProperty("supply") String supply,
             @JsonProperty("notes") String notes,
             @JsonProperty("period_s") Double periodS,
-            @JsonProperty("on_s") Double onS) {
+            @JsonProperty("on_s") Double onS,
+            @JsonProperty("switch_s") double[] switchS) {
 
         /** A steady (step) injection record, without period. */
         public Injection(Double startS, String fromRail, String toRail, Double volts, Double currentLimitA,
                          String supply, String notes) {
-            this(startS, fromRail, toRail, volts, currentLimitA, supply, notes, null, null);
+            this(startS, fromRail, toRail, volts, currentLimitA, supply, notes, null, null, null);
         }
 
         /** True when the record describes a periodic (lock-in) injection. */
         @com.fasterxml.jackson.annotation.JsonIgnore
         public boolean periodic() {
-            return periodS != null;
+            return periodS != null || switchS != null;
         }
     }
 }

@@ -157,6 +157,19 @@ class LockInFitTest {
     }
 
     @Test
+    void recordedSwitchingTimesGiveTheExcitationWhenTheyKeepOnePeriod() {
+        // on at 2, 10.05, 17.95, 26 s (period (26 - 2) / 3 = 8 s), off 4 s after each (mean of 4.0, 3.9, 4.1)
+        Excitation ex = LockInAnalysis.fromSwitching(new double[]{2, 6, 10.05, 13.95, 17.95, 22.05, 26});
+        assertEquals(8.0, ex.periodS(), 1e-12);
+        assertEquals(4.0, ex.onS(), 1e-12);
+        assertEquals(2.0, ex.firstOnS(), 1e-12);
+        // a switch-on 0.5 s late (6 % of the period) breaks the fixed period lock-in needs
+        IllegalArgumentException e = org.junit.jupiter.api.Assertions.assertThrows(IllegalArgumentException.class,
+                () -> LockInAnalysis.fromSwitching(new double[]{2, 6, 10.5, 14, 18, 22, 26}));
+        assertTrue(e.getMessage().contains("lock-in needs a steady period"), e.getMessage());
+    }
+
+    @Test
     void periodIsFoundFromTheSpectrumAndNotFromNoiseAlone() {
         double[] t = unevenTimes(300, 0.5, 3);
         double[] y = new double[t.length], noise = new double[t.length];

@@ -34,6 +34,17 @@ class PeriodicSidecarTest {
     }
 
     @Test
+    void switchingTimesMakeTheInjectionPeriodicAndMustRise() throws IOException {
+        assertTrue(load("{\"switch_s\": [2, 6, 10, 14]}").injection().periodic());
+        InputRejected e = assertThrows(InputRejected.class, () -> load("{\"switch_s\": [2, 6, 5, 14]}"));
+        assertTrue(e.getMessage().contains("injection.switch_s"), e.getMessage());
+        e = assertThrows(InputRejected.class, () -> load("{\"switch_s\": [2, 6]}"));
+        assertTrue(e.getMessage().contains("two on/off pairs"), e.getMessage());
+        e = assertThrows(InputRejected.class, () -> load("{\"period_s\": 8, \"switch_s\": [2, 6, 10, 14]}"));
+        assertTrue(e.getMessage().contains("not both"), e.getMessage());
+    }
+
+    @Test
     void badPeriodicFieldsAreRefusedNamingTheField() {
         InputRejected e = assertThrows(InputRejected.class, () -> load("{\"period_s\": -1}"));
         assertTrue(e.getMessage().contains("injection.period_s"), e.getMessage());

@@ -105,12 +105,18 @@ public final class LockInReport {
     public static String toHtml(LockIn lockIn, String caseNotes) {
         String steady = ReportHtml.toHtml(lockIn.steady(), caseNotes);
         String section = section(lockIn);
-        String anchor = "</header>\n";
-        int at = steady.indexOf(anchor);
-        if (at < 0) at = steady.indexOf("<main>\n") + "<main>\n".length() - anchor.length();
-        return steady.substring(0, at + anchor.length()) + section
+        // after the page header (board, series, notes); should the steady page change shape, at the top of <main>
+        int at = after(steady, "</header>\n");
+        if (at < 0) at = after(steady, "<main>\n");
+        if (at < 0) at = 0;
+        return steady.substring(0, at) + section
                 + "<h2 class=\"lockin-divider\">Steady analysis of the same frames (for comparison)</h2>\n"
-                + steady.substring(at + anchor.length());
+                + steady.substring(at);
+    }
+
+    private static int after(String text, String anchor) {
+        int i = text.indexOf(anchor);
+        return i < 0 ? -1 : i + anchor.length();
     }
 
     static String section(LockIn li) {

@@ -42,6 +42,17 @@ public final class Analyzer {
     public static Analysis run(FrameSource frames, Board board, Supplier<BoardMapper> mappers,
                                Supplier<AmbientSampler> ambient, SeriesAnalysis analysis, int threads,
                                Progress progress) {
+        return run(frames, board, mappers, ambient, analysis, null, threads, progress);
+    }
+
+    /** As above; {@code alsoInOrder} (may be null) sees every frame's sample in time order too (lock-in). */
+    public static Analysis run(FrameSource frames, Board board, Supplier<BoardMapper> mappers,
+                               Supplier<AmbientSampler> ambient, SeriesAnalysis analysis,
+                               java.util.function.Consumer<FrameSample> alsoInOrder, int threads, Progress progress) {
+        java.util.function.Consumer<FrameSample> sink = alsoInOrder == null ? analysis::add : s -> {
+            analysis.add(s);
+            alsoInOrder.accept(s);
+        };
         int n = frames.size();
         threads = Math.max(1, threads);
         // one single-thread executor per worker and frame i always on worker i mod threads: each worker's
@@ -63,12 +74,12 @@ public final class Analyzer {
                 final int index = i;
                 inFlight.add(pools[index % pools.length].submit(() -> workers.get().process(frames, index)));
                 while (inFlight.size() > window) {
-                    analysis.add(take(inFlight.poll()));
+                    sink.accept(take(inFlight.poll()));
                     progress.update(++done, n);
                 }
             }
             while (!inFlight.isEmpty()) {
-                analysis.add(take(inFlight.poll()));
+                sink.accept(take(inFlight.poll()));
                 progress.update(++done, n);
             }
         } finally {

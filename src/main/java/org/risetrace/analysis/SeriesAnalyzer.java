@@ -51,6 +51,13 @@ public final class SeriesAnalyzer {
     public static Analysis analyze(Series series, Board board, Path boardFile, String seriesLabel,
                                    AnalysisOptions options, EmissivityModel emissivity, int threads,
                                    Analyzer.Progress progress) {
+        return analyze(series, board, boardFile, seriesLabel, options, emissivity, threads, progress, null);
+    }
+
+    /** As above; {@code alsoInOrder} (may be null) sees every frame's sample in time order too (lock-in). */
+    public static Analysis analyze(Series series, Board board, Path boardFile, String seriesLabel,
+                                   AnalysisOptions options, EmissivityModel emissivity, int threads,
+                                   Analyzer.Progress progress, java.util.function.Consumer<FrameSample> alsoInOrder) {
         if (series.size() == 0) throw new InputRejected(series.folder(), "the series has no frames");
         Frame reference = series.read(referenceIndex(series, board, boardFile));
         Registrar registrar = Registrars.create(reference, board, RegistrationConfig.defaults());
@@ -76,8 +83,8 @@ public final class SeriesAnalyzer {
             @Override public Frame read(int i) { return series.read(i); }
         };
         return Analyzer.run(source, board, () -> mapper(registrar, rectifier),
-                () -> AmbientSampler.forBoard(board, options.ambientGapMm(), options.ambientBandMm()), sa, threads,
-                progress).withBenchReadings(readings);
+                () -> AmbientSampler.forBoard(board, options.ambientGapMm(), options.ambientBandMm()), sa, alsoInOrder,
+                threads, progress).withBenchReadings(readings);
     }
 
     /** The folder's readings.csv, assessed; null when there is none (planning stage, {@link ReadingsFile}). */

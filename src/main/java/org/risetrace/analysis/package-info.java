@@ -1,2 +1,2 @@
-/** Analysis: board-space sampling, baseline, rise curves, fits, ranking and verdict, hot spots. Uses the stages above. */
+/** Analysis: board-space sampling, baseline, rise curves, fits, ranking and verdict, hot spots, lock-in. Uses the stages above. */
 package org.risetrace.analysis;

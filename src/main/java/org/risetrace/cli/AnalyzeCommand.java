@@ -3,6 +3,9 @@ package org.risetrace.cli;
 import org.risetrace.analysis.Analysis;
 import org.risetrace.analysis.AnalysisOptions;
 import org.risetrace.analysis.Analyzer;
+import org.risetrace.analysis.LockIn;
+import org.risetrace.analysis.LockInAnalyzer;
+import org.risetrace.analysis.LockInResult;
 import org.risetrace.analysis.SeriesAnalyzer;
 import org.risetrace.analysis.Verdict;
 import org.risetrace.board.Board;
@@ -11,6 +14,7 @@ import org.risetrace.calibration.Materials;
 import org.risetrace.frame.InputRejected;
 import org.risetrace.io.Series;
 import org.risetrace.report.AnalysisJson;
+import org.risetrace.report.LockInReport;
 import org.risetrace.report.Reports;
 import me.tongfei.progressbar.ConsoleProgressBarConsumer;
 import me.tongfei.progressbar.ProgressBar;
@@ -43,6 +47,25 @@ public final class AnalyzeCommand implements Callable<Integer> {
 
     @CommandLine.Mixin
     OutputOptions output = new OutputOptions();
+
+    /** Which analysis runs. */
+    public enum Mode { auto, steady, lock_in }
+
+    @Option(names = "--mode", paramLabel = "auto|steady|lock-in", converter = ModeConverter.class,
+            description = "auto (default): lock-in when series.json gives injection.period_s, else steady; "
+                    + "lock-in: also without a period (found from the spectrum of the board's mean temperature)")
+    Mode mode = Mode.auto;
+
+    static final class ModeConverter implements CommandLine.ITypeConverter<Mode> {
+        @Override public Mode convert(String value) {
+            return switch (value) {
+                case "auto" -> Mode.auto;
+                case "steady" -> Mode.steady;
+                case "lock-in" -> Mode.lock_in;
+                default -> throw new CommandLine.TypeConversionException("'" + value + "': use auto, steady or lock-in");
+            };
+        }
+    }
 
     @CommandLine.Mixin
     Tunables tunables = new Tunables();
@@ -97,6 +120,7 @@ public final class AnalyzeCommand implements Callable<Integer> {
         if (!Files.isRegularFile(boardFile))
             throw new InputRejected(boardFile, "board file not found", "mark the board with 'risetrace board' or pass --board");
         Board b = BoardFile.read(boardFile, Materials.load().names());
+        if (mode == Mode.lock_in || (mode == Mode.auto && LockInAnalyzer.periodic(s))) return lockIn(s, b, boardFile, options, err);
         Analysis a = SeriesAnalyzer.analyze(s, b, boardFile, series.toString(), options,
                 SeriesAnalyzer.emissivity(s.profile()), tunables.threads(), progress(err));
         Path dir = output.out != null ? output.out : Path.of("risetrace-out", series.toAbsolutePath().normalize().getFileName().toString());
@@ -107,10 +131,50 @@ public final class AnalyzeCommand implements Callable<Integer> {
             o.flush();
         } else {
             spec.commandLine().getOut().println(line(series.getFileName().toString(), a.result().verdict()));
+            spec.commandLine().getOut().println("mode: steady");
             spec.commandLine().getOut().println("report: " + dir.resolve("report.html"));
         }
         err.flush();
         return Main.EXIT_OK;
+    }
+
+    /** The lock-in path: one pass feeds the lock-in and the steady analysis; the lock-in verdict is the answer. */
+    private Integer lockIn(Series s, Board b, Path boardFile, AnalysisOptions options, PrintWriter err) {
+        LockIn li = LockInAnalyzer.analyze(s, b, boardFile, series.toString(), options,
+                SeriesAnalyzer.emissivity(s.profile()), tunables.threads(), progress(err));
+        Path dir = output.out != null ? output.out : Path.of("risetrace-out", series.toAbsolutePath().normalize().getFileName().toString());
+        writeLockIn(li, dir, s.sidecar() == null ? null : s.sidecar().notes());
+        PrintWriter o = spec.commandLine().getOut();
+        if (output.json) {
+            o.println(LockInReport.toJson(li).stripTrailing());
+        } else {
+            o.println(line(series.getFileName().toString(), li.result().verdict()));
+            o.println(modeLine(li));
+            o.println("report: " + dir.resolve("report.html"));
+        }
+        o.flush();
+        err.flush();
+        return Main.EXIT_OK;
+    }
+
+    /** "mode: lock-in, ..." with the timing, periods, sensitivity and the steady verdict of the same frames. */
+    static String modeLine(LockIn li) {
+        LockInResult r = li.result();
+        Verdict sv = r.steadyVerdict();
+        return String.format(Locale.ROOT, "mode: lock-in, period %.4g s (%s), %d whole periods, sensitivity %s; "
+                        + "steady analysis of the same frames: %s%s", r.excitation().periodS(),
+                r.excitation().source().startsWith("series.json") ? "from series.json" : "found from the spectrum",
+                r.periods(), r.sensitivityK() == null ? "unknown" : String.format(Locale.ROOT, "%.2g K per pixel (3 sigma)",
+                        r.sensitivityK()), sv == null ? "none" : sv.status().word(),
+                sv == null || sv.ref() == null ? "" : " " + sv.ref());
+    }
+
+    static void writeLockIn(LockIn li, Path dir, String notes) {
+        try {
+            LockInReport.writeAll(li, dir, notes);
+        } catch (UncheckedIOException e) {
+            throw new InputRejected(dir, "cannot write the results: " + e.getCause().getMessage());
+        }
     }
 
     /** One line for a verdict. */

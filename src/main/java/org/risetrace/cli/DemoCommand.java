@@ -3,6 +3,8 @@ package org.risetrace.cli;
 import org.risetrace.analysis.Analysis;
 import org.risetrace.analysis.AnalysisOptions;
 import org.risetrace.analysis.Hotspot;
+import org.risetrace.analysis.LockIn;
+import org.risetrace.analysis.LockInAnalyzer;
 import org.risetrace.analysis.SeriesAnalyzer;
 import org.risetrace.analysis.VerdictStatus;
 import org.risetrace.board.Board;
@@ -63,6 +65,10 @@ public final class DemoCommand implements Callable<Integer> {
             Series s = Series.open(dir);
             Board board = BoardFile.read(dir.resolve("board.json"), Materials.load().names());
             AnalysisOptions options = AnalysisOptions.defaults();
+            if (LockInAnalyzer.periodic(s)) {
+                mismatches += lockIn(s, board, dir, name, options, o, err) ? 0 : 1;
+                continue;
+            }
             Analysis a = s.size() == 2
                     ? SeriesAnalyzer.compare(s.read(0), s.read(1), board, dir.resolve("board.json"), options,
                     s.profile() == null ? null : s.profile().name())
@@ -86,6 +92,28 @@ public final class DemoCommand implements Callable<Integer> {
         }
         if (mismatches > 0) err.println("risetrace: " + mismatches + " sample series did not match their truth");
         return Main.EXIT_OK;
+    }
+
+    /** A periodic series: lock-in analysis; false when it does not match the simulation's truth. */
+    private boolean lockIn(Series s, Board board, Path dir, String name, AnalysisOptions options, PrintWriter o,
+                           PrintWriter err) {
+        LockIn li = LockInAnalyzer.analyze(s, board, dir.resolve("board.json"), dir.toString(), options,
+                SeriesAnalyzer.emissivity(s.profile()), SeriesAnalyzer.defaultThreads(), AnalyzeCommand.progress(err));
+        Path target = out.resolve(name);
+        AnalyzeCommand.writeLockIn(li, target, s.sidecar() == null ? null : s.sidecar().notes());
+        o.println(AnalyzeCommand.line(name, li.result().verdict()));
+        o.println("  " + AnalyzeCommand.modeLine(li));
+        boolean ok = true;
+        Path truthFile = dir.resolve("truth.json");
+        if (Files.isRegularFile(truthFile)) {
+            String source = Truth.read(truthFile).primarySource();
+            ok = li.result().verdict().status() == VerdictStatus.IDENTIFIED && source.equals(li.result().verdict().ref());
+            o.println(ok ? "  matches the simulation's truth"
+                    : "  does not match the simulation's truth: expected " + source + " identified by lock-in");
+        }
+        o.println("  report: " + target.resolve(Reports.HTML_FILE));
+        o.flush();
+        return ok;
     }
 
     /** Null when the result agrees with the simulated truth, else what differs. */

@@ -53,6 +53,11 @@ public record Sidecar(
      * @param notes         free text
      * @param plan          the injection plan {@code risetrace plan --write-series} worked out (a JSON object; its
      *                      fields are checked by the planning stage, {@code org.risetrace.planning.SeriesInjection})
+     * @param periodS       periodic (lock-in) injection: seconds from one switch-on to the next; the first switch-on
+     *                      is {@code startS} (0 when absent)
+     * @param onS           periodic injection: seconds on in each period (default: half the period)
+     * @param switchS       periodic injection as recorded instead: the switching times in series seconds, on, off,
+     *                      on, off, ... (a logging supply or switch); they must keep one period
      */
     @JsonInclude(JsonInclude.Include.NON_NULL)
     public record Injection(
@@ -63,12 +68,33 @@ public record Sidecar(
             @JsonProperty("current_limit_a") Double currentLimitA,
             @JsonProperty("supply") String supply,
             @JsonProperty("notes") String notes,
-            @JsonProperty("plan") JsonNode plan) {
+            @JsonProperty("plan") JsonNode plan,
+            @JsonProperty("period_s") Double periodS,
+            @JsonProperty("on_s") Double onS,
+            @JsonProperty("switch_s") double[] switchS) {
 
-        /** An injection record without a plan. */
+        /** A steady (step) injection record, without plan or period. */
         public Injection(Double startS, String fromRail, String toRail, Double volts, Double currentLimitA,
                          String supply, String notes) {
-            this(startS, fromRail, toRail, volts, currentLimitA, supply, notes, null);
+            this(startS, fromRail, toRail, volts, currentLimitA, supply, notes, null, null, null, null);
+        }
+
+        /** A steady injection record with the plan that set it. */
+        public Injection(Double startS, String fromRail, String toRail, Double volts, Double currentLimitA,
+                         String supply, String notes, JsonNode plan) {
+            this(startS, fromRail, toRail, volts, currentLimitA, supply, notes, plan, null, null, null);
+        }
+
+        /** A periodic (lock-in) injection record without plan. */
+        public Injection(Double startS, String fromRail, String toRail, Double volts, Double currentLimitA,
+                         String supply, String notes, Double periodS, Double onS, double[] switchS) {
+            this(startS, fromRail, toRail, volts, currentLimitA, supply, notes, null, periodS, onS, switchS);
+        }
+
+        /** True when the record describes a periodic (lock-in) injection. */
+        @com.fasterxml.jackson.annotation.JsonIgnore
+        public boolean periodic() {
+            return periodS != null || switchS != null;
         }
     }
 }

@@ -84,6 +84,24 @@ public final class Sidecars {
                 throw new InputRejected(file, "field 'injection.current_limit_a' must be a positive number of amperes");
             if (inj.plan() != null && !inj.plan().isObject())
                 throw new InputRejected(file, "field 'injection.plan' must be a JSON object (written by risetrace plan)");
+            if (inj.periodS() != null && !(inj.periodS() > 0 && Double.isFinite(inj.periodS())))
+                throw new InputRejected(file, "field 'injection.period_s' must be a positive number of seconds");
+            if (inj.onS() != null && inj.periodS() == null)
+                throw new InputRejected(file, "field 'injection.on_s' needs 'injection.period_s'",
+                        "give the period of the periodic injection too");
+            if (inj.onS() != null && !(inj.onS() > 0 && inj.onS() < inj.periodS()))
+                throw new InputRejected(file, "field 'injection.on_s' must lie between 0 and period_s (exclusive)");
+            if (inj.switchS() != null) {
+                if (inj.periodS() != null)
+                    throw new InputRejected(file, "give either 'injection.period_s' or 'injection.switch_s', not both");
+                double[] sw = inj.switchS();
+                if (sw.length < 4)
+                    throw new InputRejected(file, "field 'injection.switch_s' needs at least two on/off pairs (on, off, on, off)");
+                for (int i = 0; i < sw.length; i++)
+                    if (!Double.isFinite(sw[i]) || (i > 0 && !(sw[i] > sw[i - 1])))
+                        throw new InputRejected(file, "field 'injection.switch_s' must be rising times in seconds (entry "
+                                + (i + 1) + ")");
+            }
         }
         return s;
     }

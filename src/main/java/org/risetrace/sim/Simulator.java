@@ -222,6 +222,10 @@ public final class Simulator {
                 ? new Sidecar.Injection(s.frames().injectionStartS(), null, null, null, null, null, null)
                 : new Sidecar.Injection(s.frames().injectionStartS(), inj.fromRail(), inj.toRail(), inj.volts(),
                 inj.currentLimitA(), inj.supply(), inj.notes());
+        if ("square".equals(s.fault().waveformOrDefault())) // a periodic injection: its timing, for lock-in
+            injection = new Sidecar.Injection(injection.startS(), injection.fromRail(), injection.toRail(),
+                    injection.volts(), injection.currentLimitA(), injection.supply(), injection.notes(),
+                    s.fault().periodS(), s.fault().dutyOrDefault() * s.fault().periodS(), null);
         double[] fixedSpan = enc == FrameEncoding.U8_SPAN_PNG && !s.camera().autoSpanOrFalse() ? s.camera().spanC() : null;
         Sidecar sidecar = new Sidecar(enc.profile(), s.frames().intervalS(), fixedSpan, s.reflectedCOrDefault(), entries,
                 injection, "simulated by risetrace from scenario '" + s.name() + "', seed " + s.seed());

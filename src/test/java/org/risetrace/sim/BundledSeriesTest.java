@@ -23,9 +23,9 @@ class BundledSeriesTest {
     @TempDir
     Path dir;
 
-    /** The two smaller series are regenerated in the test (phase-short takes longer and uses the same code paths). */
+    /** The smaller series are regenerated in the test (phase-short takes longer and uses the same code paths). */
     @ParameterizedTest
-    @ValueSource(strings = {"before-after", "cap-short"})
+    @ValueSource(strings = {"before-after", "cap-short", "leak-pulse"})
     void simulateCommandRegeneratesBundledSeriesByteForByte(String name) throws IOException {
         Path out = dir.resolve(name);
         int code = Main.run("simulate", "--scenario", SAMPLES.resolve(name).resolve("scenario.json").toString(),

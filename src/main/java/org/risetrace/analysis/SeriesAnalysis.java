@@ -146,28 +146,45 @@ public final class SeriesAnalysis {
     }
 
     /**
-     * The leader's lead measured on the difference of the two rise curves, frame by frame: the leader's rise at its
-     * least favourable emissivity minus the runner-up's at its most favourable, fitted as one curve over the same
-     * rate window, its standard error from that difference's own measured noise (baseline spread or second
-     * differences, AR(1) widening) and the two position errors added in quadrature. In units of that standard
-     * error; null when either rate is missing or the fit is not possible.
+     * The leader's lead on whole rise curves ({@link Verdicts.PairedLead}) over the lead window: the full rate
+     * window ({@code rateWindowS} after the injection, within the series), not the half-rise window of the rates.
+     * The paired difference against each other part is fitted as one curve ({@link PartCurve#measure}: its own
+     * noise from the baseline or second differences, AR(1) widening of the slope's error, the two position errors in
+     * quadrature); null when the leader has no rate or no comparison is possible.
      */
-    Double pairedSeparation(double[] t, PartCurve lead, PartCurve second, Verdicts.Candidate cl, Verdicts.Candidate cs,
-                            double[] wl, double[] ws, double posErrLeadK, double posErrSecondK, double windowS) {
-        if (cl.rateKPerS() == null || cs.rateKPerS() == null || lead.rate() == null || second.rate() == null) return null;
-        double sl = cl.rateKPerS() >= 0 ? Math.min(cl.lowScale(), cl.highScale()) : Math.max(cl.lowScale(), cl.highScale());
-        double ss = cs.rateKPerS() >= 0 ? Math.max(cs.lowScale(), cs.highScale()) : Math.min(cs.lowScale(), cs.highScale());
+    Verdicts.PairedLead pairedLead(double[] t, PartCurve[] curves, List<Verdicts.Candidate> cands, double[][] ws,
+                                   double[] positionErrorK, double[] mappingSigmaBoardPx, int leader) {
+        Verdicts.Candidate cl = cands.get(leader);
+        if (cl.rateKPerS() == null) return null;
+        double windowS = options.rateWindowS();
         int n = t.length;
-        double[] d = new double[n], w = new double[n];
-        for (int i = 0; i < n; i++) {
-            d[i] = sl * lead.riseK()[i] - ss * second.riseK()[i];
-            w[i] = Math.min(wl[i], ws[i]);
+        double sigma = windowEndsSigma(t, mappingSigmaBoardPx, plan.tStartS(), windowS, options.minRateFrames());
+        PartCurve own = PartCurve.measure(t, curves[leader].riseK(), null, ws[leader], Math.max(1, baselineUsed),
+                plan.tStartS(), windowS, positionErrorK[leader] * sigma, options, false);
+        if (own.rate() == null || !(own.rate().slopeSe() > 0)) return null;
+        double leaderZ = own.rate().slope() / own.rate().slopeSe();
+        double sl = cl.rateKPerS() >= 0 ? Math.min(cl.lowScale(), cl.highScale()) : Math.max(cl.lowScale(), cl.highScale());
+        String against = null;
+        double worst = Double.POSITIVE_INFINITY;
+        for (int q = 0; q < curves.length; q++) {
+            Verdicts.Candidate cq = cands.get(q);
+            if (q == leader || cq.rateKPerS() == null) continue;
+            double sq = cq.rateKPerS() >= 0 ? Math.max(cq.lowScale(), cq.highScale()) : Math.min(cq.lowScale(), cq.highScale());
+            double[] d = new double[n], w = new double[n];
+            for (int i = 0; i < n; i++) {
+                d[i] = sl * curves[leader].riseK()[i] - sq * curves[q].riseK()[i];
+                w[i] = Math.min(ws[leader][i], ws[q][i]);
+            }
+            PartCurve diff = PartCurve.measure(t, d, null, w, Math.max(1, baselineUsed), plan.tStartS(), windowS,
+                    Math.hypot(sl * positionErrorK[leader], sq * positionErrorK[q]) * sigma, options, false);
+            LineFit r = diff.rate();
+            if (r == null || !(r.slopeSe() > 0)) continue;
+            double z = r.slope() / r.slopeSe();
+            if (z < worst) { worst = z; against = cq.ref(); }
         }
-        PartCurve diff = PartCurve.measure(t, d, null, w, Math.max(1, baselineUsed), plan.tStartS(), windowS,
-                Math.hypot(sl * posErrLeadK, ss * posErrSecondK), options, false);
-        LineFit r = diff.rate();
-        if (r == null || !(r.slopeSe() > 0)) return null;
-        return r.slope() / r.slopeSe();
+        if (against == null) return null;
+        double used = Math.min(windowS, t[n - 1] - plan.tStartS());
+        return new Verdicts.PairedLead(against, worst, leaderZ, used);
     }
 
     /** Measures, ranks and decides. */
@@ -291,9 +308,8 @@ public final class SeriesAnalysis {
         }));
         List<Verdicts.Candidate> ranked = new ArrayList<>();
         for (Integer p : order) ranked.add(candidates.get(p));
-        Double paired = np >= 2 ? pairedSeparation(t, curves[order[0]], curves[order[1]], candidates.get(order[0]),
-                candidates.get(order[1]), ws[order[0]], ws[order[1]], positionErrorK[order[0]] * positionSigma,
-                positionErrorK[order[1]] * positionSigma, windowS) : null;
+        Verdicts.PairedLead paired = np >= 2 ? pairedLead(t, curves, candidates, ws, positionErrorK, mappingSigmaBoardPx,
+                order[0]) : null;
         Verdict verdict = Verdicts.decide(ranked, hotspots, sm.sigma(), weakCount, n, options, "K/s", parts, blurMarginMm,
                 paired);
 

@@ -93,21 +93,32 @@ public final class Verdicts {
     }
 
     /**
-     * @param pairedSeparation the lead measured on the two parts' difference (leader at its least favourable
-     *                         emissivity minus runner-up at its most favourable, frame by frame, with the standard
-     *                         error of that difference's rate); null to combine the two rates' standard errors as if
-     *                         independent. Noise common to both parts (a camera's global offset flicker, a change of
-     *                         resolution with the camera's distance) cancels in the difference, so this is the
-     *                         measured noise of the very quantity the rule tests.
+     * The leader's lead measured on whole rise curves over the lead window (the rate window before it is shortened to
+     * the half-rise time): against every other part, the slope of the difference of the two rise curves (leader at
+     * its least favourable emissivity minus the other at its most favourable, frame by frame) in units of that
+     * difference's own standard error; the smallest of these is the separation and {@code againstRef} the part that
+     * gives it. Noise common to both parts (a camera's global offset flicker, a change of resolution with the camera's
+     * distance) cancels in the difference, and the longer window uses every frame of the early rise, so this tests
+     * the very quantity the rule is about with its measured noise. {@code leaderZ} is the leader's own rise slope
+     * over that window in standard errors (the heating test).
+     */
+    public record PairedLead(String againstRef, double separation, double leaderZ, double windowS) {
+    }
+
+    /**
+     * @param paired the lead measured on whole rise curves ({@link PairedLead}); null to combine the leader's and the
+     *               runner-up's rate errors as if independent
      */
     public static Verdict decide(List<Candidate> ranked, List<Hotspot> hotspots, double mapSigma, int weakFrames,
                                  int usedFrames, AnalysisOptions o, String unit, List<Part> parts, double marginMm,
-                                 Double pairedSeparation) {
+                                 PairedLead paired) {
         double k = o.kSigma();
         Candidate lead = ranked.isEmpty() ? null : ranked.get(0);
         Candidate second = ranked.size() > 1 ? ranked.get(1) : null;
+        if (paired != null && Double.isFinite(paired.separation()))
+            for (Candidate c : ranked) if (c.ref().equals(paired.againstRef())) second = c;
         Double sep = null;
-        if (pairedSeparation != null && Double.isFinite(pairedSeparation)) sep = pairedSeparation;
+        if (paired != null && Double.isFinite(paired.separation())) sep = paired.separation();
         else if (lead != null && second != null && lead.rateKPerS() != null && second.rateKPerS() != null
                 && lead.rateSe() != null && second.rateSe() != null) {
             // worst case of the emissivity uncertainty: the leader at its least favourable emissivity against the
@@ -135,20 +146,24 @@ public final class Verdicts {
                             + " mark the part there and analyse again", top.xMm(), top.yMm(), top.riseK()));
         if (lead == null)
             return new Verdict(VerdictStatus.INCONCLUSIVE, null, null, null, null, "the board file marks no parts");
-        if (!significant(lead, k))
+        boolean heats = significant(lead, k) || (paired != null && paired.leaderZ() > k);
+        if (!heats)
             return new Verdict(VerdictStatus.INCONCLUSIVE, leadRef, leadRate, secondRef, sep,
                     "too little heating: the fastest part, " + leadRef + (unit.equals("K") ? ", rose by " : ", rises at ") + rate(lead, unit)
                             + ", under " + num(k) + " standard errors from zero");
         if (sep != null && sep < o.separationSigma())
             return new Verdict(VerdictStatus.INCONCLUSIVE, leadRef, leadRate, secondRef, sep,
                     "two parts level: " + leadRef + " (" + rate(lead, unit) + ") and " + secondRef + " (" + rate(second, unit)
-                            + ") differ by " + num(sep) + " combined standard errors, under " + num(o.separationSigma()));
+                            + ") differ by " + num(sep) + " combined standard errors"
+                            + (paired != null ? String.format(Locale.ROOT, " (rise curves over %.0f s)", paired.windowS()) : "")
+                            + ", under " + num(o.separationSigma()));
         String weakNote = usedFrames > 0 && weakFrames > o.weakFractionLimit() * usedFrames
                 ? " (registration weak in " + weakFrames + " of " + usedFrames
                 + " frames; their mapping error is part of every rate's error)" : "";
         return new Verdict(VerdictStatus.IDENTIFIED, leadRef, leadRate, secondRef, sep,
                 leadRef + (unit.equals("K") ? " warmed most: " : " heats fastest: ") + rate(lead, unit)
-                        + (sep == null ? "" : ", " + num(sep) + " combined standard errors ahead of " + secondRef)
+                        + (sep == null ? "" : ", " + num(sep) + " combined standard errors ahead of " + secondRef
+                        + (paired != null ? String.format(Locale.ROOT, " (rise curves over %.0f s)", paired.windowS()) : ""))
                         + weakNote);
     }
 

@@ -122,7 +122,8 @@ public final class Analyzer {
             } catch (InputRejected e) {
                 // one unreadable frame does not end the analysis: it is listed as not used, with the reason
                 return new FrameSample(i, file, t, null, new FrameRegistration(file, t, RegistrationStatus.FAILED,
-                        "cannot read: " + e.reason(), null, null, 0, Double.NaN, Double.NaN), null, null, Double.NaN);
+                        e.reason().startsWith("cannot read") ? e.reason() : "cannot read: " + e.reason(), null, null, 0,
+                        Double.NaN, Double.NaN), null, null, Double.NaN);
             }
             return sample(i, frame, t);
         }

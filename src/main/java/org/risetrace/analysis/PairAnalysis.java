@@ -85,7 +85,11 @@ public final class PairAnalysis {
         List<Verdicts.Candidate> ranked = new ArrayList<>();
         for (Integer p : order) ranked.add(cands.get(p));
         int weak = (rb.status() == RegistrationStatus.WEAK ? 1 : 0) + (ra.status() == RegistrationStatus.WEAK ? 1 : 0);
-        Verdict v0 = Verdicts.decide(ranked, hotspots, sm.sigma(), weak, 2, o, "K");
+        // both frames must show some part: a pair has one frame on each side of the injection
+        boolean seen = np == 0;
+        for (int p = 0; p < np; p++) seen |= valid[p] > 0 && Double.isFinite(rise[p]);
+        Verdict v0 = Verdicts.insufficientEvidence(seen ? new double[]{0, 1} : new double[0], 2, 0.5, np, 2);
+        if (v0 == null) v0 = Verdicts.decide(ranked, hotspots, sm.sigma(), weak, 2, o, "K");
         Verdict v = new Verdict(v0.status(), v0.ref(), null, v0.runnerUpRef(), v0.separationSigma(), v0.reason());
 
         List<PartResult> results = new ArrayList<>();

@@ -310,8 +310,11 @@ public final class SeriesAnalysis {
         for (Integer p : order) ranked.add(candidates.get(p));
         Verdicts.PairedLead paired = np >= 2 ? pairedLead(t, curves, candidates, ws, positionErrorK, mappingSigmaBoardPx,
                 order[0]) : null;
-        Verdict verdict = Verdicts.decide(ranked, hotspots, sm.sigma(), weakCount, n, options, "K/s", parts, blurMarginMm,
-                paired);
+        Verdict verdict = Verdicts.insufficientEvidence(usableTimes(t, np), n, plan.tStartS(), np,
+                Verdicts.MIN_USABLE_FRAMES);
+        if (verdict == null)
+            verdict = Verdicts.decide(ranked, hotspots, sm.sigma(), weakCount, n, options, "K/s", parts, blurMarginMm,
+                    paired);
 
         List<PartResult> results = new ArrayList<>();
         List<RiseCurve> riseCurves = new ArrayList<>();
@@ -341,6 +344,20 @@ public final class SeriesAnalysis {
             riseCurves.add(new RiseCurve(part.ref(), t.clone(), c.riseK(), c.onsetS(), fit));
         }
         return new Analysis(result(verdict, results, hotspots), board, riseCurves, sm.map(), maps.onsetMap(), lastRaster);
+    }
+
+    /** Times of the frames in which some part's footprint was visible with a finite temperature. */
+    private double[] usableTimes(double[] t, int np) {
+        double[] out = new double[t.length];
+        int m = 0;
+        for (int i = 0; i < t.length; i++) {
+            boolean usable = np == 0;
+            for (int p = 0; p < np && !usable; p++)
+                usable = stats.get(i)[p * FootprintSampler.STATS + FootprintSampler.VALID] > 0
+                        && Double.isFinite(stats.get(i)[p * FootprintSampler.STATS + FootprintSampler.P95]);
+            if (usable) out[m++] = t[i];
+        }
+        return Arrays.copyOf(out, m);
     }
 
     /**
@@ -417,7 +434,13 @@ public final class SeriesAnalysis {
         CorrectionTable(EmissivityModel model, double e, double reflectedC, double loC, double hiC) {
             lo = loC - 0.5;
             step = (hiC + 0.5 - lo) / (NODES - 1);
-            for (int k = 0; k < NODES; k++) object[k] = model.objectCelsius(lo + k * step, e, reflectedC);
+            try {
+                for (int k = 0; k < NODES; k++) object[k] = model.objectCelsius(lo + k * step, e, reflectedC);
+            } catch (IllegalArgumentException impossible) {
+                // the readings and the reflected temperature contradict each other (e.g. reflected_c far above them)
+                throw new org.risetrace.frame.InputRejected(null, "the emissivity correction is impossible: "
+                        + impossible.getMessage(), "check reflected_c in series.json and the parts' materials");
+            }
         }
 
         /** Object kelvin per apparent kelvin over the table's range (the rise scale of the correction). */

@@ -60,8 +60,13 @@ public final class SeriesAnalyzer {
                                    Analyzer.Progress progress, java.util.function.Consumer<FrameSample> alsoInOrder) {
         if (series.size() == 0) throw new InputRejected(series.folder(), "the series has no frames");
         Frame reference = series.read(referenceIndex(series, board, boardFile));
-        Registrar registrar = Registrars.create(reference, board, RegistrationConfig.defaults());
         double pxPerMm = options.pxPerMm() != null ? options.pxPerMm() : Rectifier.defaultPxPerMm(board);
+        // bounds before the large allocations: the board raster, then the workers' memory
+        if (options.pxPerMm() != null) MemoryBudget.requireResolvesParts(board, pxPerMm, boardFile);
+        long boardPixels = MemoryBudget.boardRasterPixels(board, pxPerMm, boardFile);
+        threads = MemoryBudget.threadsThatFit(reference.source(), reference.width(), reference.height(), boardPixels,
+                threads);
+        Registrar registrar = Registrars.create(reference, board, RegistrationConfig.defaults());
         Rectifier rectifier = new Rectifier(board, pxPerMm);
         double[] times = new double[series.size()];
         for (int i = 0; i < times.length; i++) times[i] = series.tSeconds(i);
@@ -99,8 +104,11 @@ public final class SeriesAnalyzer {
                                    String profileName) {
         String refName = board.outline() == null ? null : board.outline().frame();
         Frame reference = after.fileName().equals(refName) ? after : before;
-        Registrar registrar = Registrars.create(reference, board, RegistrationConfig.defaults());
         double pxPerMm = options.pxPerMm() != null ? options.pxPerMm() : Rectifier.defaultPxPerMm(board);
+        if (options.pxPerMm() != null) MemoryBudget.requireResolvesParts(board, pxPerMm, boardFile);
+        MemoryBudget.threadsThatFit(reference.source(), reference.width(), reference.height(),
+                MemoryBudget.boardRasterPixels(board, pxPerMm, boardFile), 1);
+        Registrar registrar = Registrars.create(reference, board, RegistrationConfig.defaults());
         AmbientSampler ambient = AmbientSampler.forBoard(board, options.ambientGapMm(), options.ambientBandMm());
         SeriesAnalysis.Context context = new SeriesAnalysis.Context(before.source() + " -> " + after.source(),
                 boardFile == null ? null : boardFile.toString(), profileName, null, null, version(), ambient.source());

@@ -8,6 +8,8 @@ import java.util.Locale;
 /**
  * The decision rules, from measured noise only (no fixed temperature threshold anywhere):
  * <ol>
+ * <li>{@code inconclusive}, "the data cannot decide": too few usable frames, none after the injection start, or no
+ *     marked part visible at all ({@link #insufficientEvidence}).</li>
  * <li>{@code no-heating}: no part's rise crossed k sigma (no onset), no part's rate is k standard errors above zero,
  *     and the rise map has no hot spot.</li>
  * <li>{@code inconclusive}, "on no marked part": the strongest hot spot lies on no marked part, farther than two
@@ -165,6 +167,49 @@ public final class Verdicts {
                         + (sep == null ? "" : ", " + num(sep) + " combined standard errors ahead of " + secondRef
                         + (paired != null ? String.format(Locale.ROOT, " (rise curves over %.0f s)", paired.windowS()) : ""))
                         + weakNote);
+    }
+
+    /** Fewest usable frames a series verdict rests on: a baseline, and at least two frames to see a rise in. */
+    public static final int MIN_USABLE_FRAMES = 3;
+
+    /**
+     * The evidence rule, before all others: when the data cannot decide, the status is {@code inconclusive} with the
+     * reason, never {@code no-heating} (which would tell the user, wrongly, that the board was seen not to heat).
+     * A usable frame is a mapped frame in which some marked part's footprint was visible (finite temperatures).
+     *
+     * @param usableTimesS times of the usable frames
+     * @param mappedFrames frames mapped onto the board
+     * @param tStartS      the injection start (baseline frames lie at or before it)
+     * @param parts        marked parts (with none, every mapped frame counts as usable)
+     * @return the inconclusive verdict, or null when the evidence suffices
+     */
+    public static Verdict insufficientEvidence(double[] usableTimesS, int mappedFrames, double tStartS, int parts,
+                                               int minFrames) {
+        int n = usableTimesS.length;
+        if (parts > 0 && n == 0)
+            return undecided("no marked part was visible in any of the " + mappedFrames + " mapped frames: check "
+                    + "the board outline (corners) and the board resolution (--px-per-mm)");
+        if (n < minFrames)
+            return undecided("only " + n + " usable frame" + (n == 1 ? "" : "s") + " (of " + mappedFrames
+                    + " mapped): at least " + minFrames + " are needed to measure a rise against the noise");
+        int after = 0, before = 0;
+        double last = Double.NEGATIVE_INFINITY;
+        for (double t : usableTimesS) {
+            if (t > tStartS) after++;
+            else before++;
+            last = Math.max(last, t);
+        }
+        if (after == 0)
+            return undecided(String.format(Locale.ROOT, "no usable frame after the injection start (%.3f s; the last"
+                    + " usable frame is at %.3f s): check injection.start_s in series.json", tStartS, last));
+        if (before == 0)
+            return undecided(String.format(Locale.ROOT, "no usable frame at or before the injection start (%.3f s)"
+                    + " for the baseline", tStartS));
+        return null;
+    }
+
+    private static Verdict undecided(String reason) {
+        return new Verdict(VerdictStatus.INCONCLUSIVE, null, null, null, null, "the data cannot decide: " + reason);
     }
 
     /** True when the point lies within marginMm of some part's (rotated) footprint rectangle. */

@@ -12,7 +12,6 @@ import org.risetrace.frame.InputRejected;
 
 import java.io.IOException;
 import java.nio.file.Files;
-import java.nio.file.NoSuchFileException;
 import java.nio.file.Path;
 import java.util.HashSet;
 import java.util.List;
@@ -24,13 +23,17 @@ import java.util.Set;
  * field (and for malformed JSON the line and column).
  */
 public final class BoardFile {
+    /** Largest board side, mm: 2 m, beyond any board a thermal camera images whole (and far from overflow). */
+    public static final double MAX_SIZE_MM = 2000;
+    /** Largest outline coordinate, frame pixels: far outside any frame the import takes. */
+    public static final double MAX_CORNER_PX = 1e6;
+
     /** Tolerance for parts touching the board edge, mm. */
     private static final double EDGE_TOLERANCE_MM = 1e-6;
 
-    private static final ObjectMapper MAPPER = new ObjectMapper()
+    private static final ObjectMapper MAPPER = org.risetrace.frame.StrictJson.builder()
             .enable(DeserializationFeature.FAIL_ON_UNKNOWN_PROPERTIES)
-            .enable(DeserializationFeature.FAIL_ON_NULL_FOR_PRIMITIVES)
-            .enable(SerializationFeature.INDENT_OUTPUT);
+            .enable(SerializationFeature.INDENT_OUTPUT).build();
 
     private BoardFile() {
     }
@@ -75,14 +78,8 @@ public final class BoardFile {
     }
 
     private static Board parse(Path file) {
-        byte[] bytes;
-        try {
-            bytes = Files.readAllBytes(file);
-        } catch (NoSuchFileException e) {
-            throw new InputRejected(file, "board file not found", "give the path to board.json");
-        } catch (IOException e) {
-            throw new InputRejected(file, "cannot read board file: " + e.getMessage(), null, e);
-        }
+        if (!Files.exists(file)) throw new InputRejected(file, "board file not found", "give the path to board.json");
+        byte[] bytes = org.risetrace.frame.InputFiles.readDocument(file, "board file");
         JsonNode tree;
         Board board;
         try {
@@ -97,6 +94,8 @@ public final class BoardFile {
             throw new InputRejected(file, "field '" + pathOf(e) + "' has the wrong type" + at(e.getLocation())
                     + ": " + e.getOriginalMessage().split("\n")[0], "see README, board file", e);
         } catch (JsonProcessingException e) {
+            String dup = org.risetrace.frame.StrictJson.duplicateKey(e);
+            if (dup != null) throw new InputRejected(file, dup, "give each field once");
             throw new InputRejected(file, "malformed JSON" + at(e.getLocation()) + ": "
                     + e.getOriginalMessage().split("\n")[0], null, e);
         } catch (IOException e) {
@@ -160,6 +159,10 @@ public final class BoardFile {
             if (!Double.isFinite(v) || v <= 0)
                 throw new InputRejected(file, "field 'size_mm' must hold two positive sizes, got "
                         + java.util.Arrays.toString(size));
+        for (double v : size)
+            if (v > MAX_SIZE_MM)
+                throw new InputRejected(file, "field 'size_mm' must be at most " + (int) MAX_SIZE_MM + " mm a side, got "
+                        + java.util.Arrays.toString(size), "sizes are in millimetres");
         double w = size[0], h = size[1];
         Outline o = b.outline();
         if (o == null) {
@@ -182,6 +185,9 @@ public final class BoardFile {
             if (p == null) throw new InputRejected(file, "field '" + f + "' is null");
             if (p.ref() == null || p.ref().isBlank())
                 throw new InputRejected(file, "field '" + f + ".ref' is empty");
+            if (hasControl(p.ref()))
+                throw new InputRejected(file, "field '" + f + ".ref' holds a control character",
+                        "designators are printed on terminals: letters, digits and punctuation only");
             f = "parts[" + i + "] (" + p.ref() + ")";
             if (!refs.add(p.ref()))
                 throw new InputRejected(file, "duplicate designator '" + p.ref() + "' in " + f + ".ref",
@@ -217,6 +223,15 @@ public final class BoardFile {
         }
     }
 
+    /** C0 and C1 control characters and DEL: a terminal acts on them (ESC sequences, BEL). */
+    static boolean hasControl(String s) {
+        for (int i = 0; i < s.length(); i++) {
+            char c = s.charAt(i);
+            if (c < 0x20 || (c >= 0x7F && c < 0xA0)) return true;
+        }
+        return false;
+    }
+
     private static void finite(double v, String field, Path file) {
         if (!Double.isFinite(v)) throw new InputRejected(file, "field '" + field + "' must be a finite number");
     }
@@ -238,6 +253,9 @@ public final class BoardFile {
         for (int i = 0; i < 4; i++) {
             if (c[i] == null || c[i].length != 2 || !Double.isFinite(c[i][0]) || !Double.isFinite(c[i][1]))
                 throw new InputRejected(file, "field '" + field + "[" + i + "]' must be [x, y] in pixels");
+            if (Math.abs(c[i][0]) > MAX_CORNER_PX || Math.abs(c[i][1]) > MAX_CORNER_PX)
+                throw new InputRejected(file, "field '" + field + "[" + i + "]' lies more than " + (long) MAX_CORNER_PX
+                        + " pixels from the frame", "corners are in frame pixels");
         }
         int positive = 0, negative = 0;
         for (int i = 0; i < 4; i++) {

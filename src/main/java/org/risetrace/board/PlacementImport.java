@@ -74,21 +74,37 @@ public final class PlacementImport {
     private record Row(int line, String ref, double x, double y, double rot) {
     }
 
-    public static Result read(Path csv, Options o) {
-        List<String> lines;
+    /** Most lines a placement list may have, and the longest line (characters). */
+    static final int MAX_LINES = 100_000, MAX_LINE_CHARS = 1 << 16;
+
+    /** The file's lines: UTF-8, else ISO-8859-1 (older exporters); bounded in size, line count and line length. */
+    private static List<String> lines(Path csv) {
+        byte[] bytes = org.risetrace.frame.InputFiles.readDocument(csv, "placement file");
+        String text;
         try {
-            lines = Files.readAllLines(csv, StandardCharsets.UTF_8);
-        } catch (java.nio.charset.MalformedInputException e) {
-            try {
-                lines = Files.readAllLines(csv, StandardCharsets.ISO_8859_1);
-            } catch (IOException e2) {
-                throw new InputRejected(csv, "cannot read: " + e2.getMessage(), null, e2);
-            }
-        } catch (java.nio.file.NoSuchFileException e) {
-            throw new InputRejected(csv, "placement file not found");
-        } catch (IOException e) {
-            throw new InputRejected(csv, "cannot read: " + e.getMessage(), null, e);
+            text = StandardCharsets.UTF_8.newDecoder().decode(java.nio.ByteBuffer.wrap(bytes)).toString();
+        } catch (java.nio.charset.CharacterCodingException e) {
+            text = new String(bytes, StandardCharsets.ISO_8859_1);
         }
+        List<String> lines = new java.util.ArrayList<>();
+        int start = 0;
+        while (start < text.length()) {
+            int end = text.indexOf('\n', start);
+            if (end < 0) end = text.length();
+            if (lines.size() >= MAX_LINES)
+                throw new InputRejected(csv, "more than " + MAX_LINES + " lines", "is it a placement list?");
+            if (end - start > MAX_LINE_CHARS)
+                throw new InputRejected(csv, "line " + (lines.size() + 1) + " is longer than " + MAX_LINE_CHARS
+                        + " characters", "is it a placement list?");
+            String line = text.substring(start, end);
+            lines.add(line.endsWith("\r") ? line.substring(0, line.length() - 1) : line);
+            start = end + 1;
+        }
+        return lines;
+    }
+
+    public static Result read(Path csv, Options o) {
+        List<String> lines = lines(csv);
         double unit = switch (o.units() == null ? "mm" : o.units().toLowerCase(Locale.ROOT)) {
             case "mm" -> 1.0;
             case "mil" -> MM_PER_MIL;
@@ -127,6 +143,9 @@ public final class PlacementImport {
             int lineNo = i + 1;
             String ref = field(f, cols[0]);
             if (ref == null || ref.isBlank()) continue;
+            if (BoardFile.hasControl(ref))
+                throw new InputRejected(csv, "line " + lineNo + ": the designator holds a control character",
+                        "designators are printed on terminals: letters, digits and punctuation only");
             if (cols[4] >= 0 && !side.equals("all")) {
                 String s = field(f, cols[4]);
                 String partSide = sideOf(s);

@@ -30,7 +30,10 @@ import java.util.Set;
 public final class Materials {
     public static final String RESOURCE = "/calibration/materials.json";
 
-    private static final ObjectMapper JSON = new ObjectMapper();
+    private static final ObjectMapper JSON = org.risetrace.frame.StrictJson.builder()
+            // entries are read one by one from the array's parser: the array itself follows each of them
+            .disable(com.fasterxml.jackson.databind.DeserializationFeature.FAIL_ON_TRAILING_TOKENS)
+            .disable(com.fasterxml.jackson.databind.DeserializationFeature.FAIL_ON_NULL_FOR_PRIMITIVES).build();
     private static volatile Materials bundled;
 
     private final Map<String, Material> byKey;   // normalised name or alias -> material
@@ -58,8 +61,9 @@ public final class Materials {
 
     /** A user's materials file; errors name the file, the line and the field. */
     public static Materials load(Path file) {
-        if (!Files.isRegularFile(file)) throw new InputRejected(file, "materials file not found");
-        try (InputStream in = Files.newInputStream(file)) {
+        if (!Files.exists(file)) throw new InputRejected(file, "materials file not found");
+        byte[] bytes = org.risetrace.frame.InputFiles.readDocument(file, "materials file");
+        try (InputStream in = new java.io.ByteArrayInputStream(bytes)) {
             return parse(in, file);
         } catch (IOException e) {
             throw new InputRejected(file, "cannot read materials file: " + e.getMessage());

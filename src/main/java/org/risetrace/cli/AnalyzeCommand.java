@@ -95,6 +95,21 @@ public final class AnalyzeCommand implements Callable<Integer> {
         Integer threads;
 
         AnalysisOptions options(CommandLine cl) {
+            // ranges at the boundary: Infinity or NaN would pass the core's "> 0" tests and give no verdict at all
+            if (!(Double.isFinite(kSigma) && kSigma > 0 && kSigma <= 100))
+                throw new CommandLine.ParameterException(cl, "--k-sigma must be a number in (0, 100], got " + kSigma);
+            if (!(Double.isFinite(separation) && separation >= 0 && separation <= 100))
+                throw new CommandLine.ParameterException(cl, "--separation must be a number in [0, 100], got " + separation);
+            if (!(Double.isFinite(rateWindowS) && rateWindowS > 0))
+                throw new CommandLine.ParameterException(cl, "--rate-window must be a positive number of seconds, got "
+                        + rateWindowS);
+            if (pxPerMm != null && !(Double.isFinite(pxPerMm) && pxPerMm > 0))
+                throw new CommandLine.ParameterException(cl, "--px-per-mm must be a positive number, got " + pxPerMm);
+            if (lastFrames < 1) throw new CommandLine.ParameterException(cl, "--last-frames must be at least 1");
+            if (baselineFrames != null && baselineFrames < 1)
+                throw new CommandLine.ParameterException(cl, "--baseline-frames must be at least 1");
+            if (threads != null && (threads < 1 || threads > 256))
+                throw new CommandLine.ParameterException(cl, "--threads must be 1 to 256");
             try {
                 return AnalysisOptions.defaults().withBaselineFrames(baselineFrames).withKSigma(kSigma)
                         .withRateWindowS(rateWindowS).withSeparationSigma(separation).withLastFrames(lastFrames)
@@ -116,15 +131,22 @@ public final class AnalyzeCommand implements Callable<Integer> {
         if (!Files.isDirectory(series)) throw new InputRejected(series, "not a folder", "name the folder of frames");
         Series s = Series.open(series, output.profile, org.risetrace.io.ReadContext.DEFAULT_MAX_PIXELS);
         for (String w : s.warnings()) err.println("risetrace: " + w);
+        Path dir = output.out != null ? output.out : Path.of("risetrace-out", series.toAbsolutePath().normalize().getFileName().toString());
+        Reports.checkOutputFolder(dir, output.force); // before the work, not after it
         Path boardFile = board != null ? board : series.resolve("board.json");
         if (!Files.isRegularFile(boardFile))
             throw new InputRejected(boardFile, "board file not found", "mark the board with 'risetrace board' or pass --board");
         Board b = BoardFile.read(boardFile, Materials.load().names());
+        if (b.outline() != null && b.outline().frames() != null)
+            for (String name : b.outline().frames().keySet())
+                if (!s.files().stream().anyMatch(f -> f.getFileName().toString().equals(name)))
+                    err.println("risetrace: warning: " + boardFile + ": outline.frames names frame '" + name
+                            + "', which is not in the series; its corners are not used");
         if (mode == Mode.lock_in || (mode == Mode.auto && LockInAnalyzer.periodic(s))) return lockIn(s, b, boardFile, options, err);
         Analysis a = SeriesAnalyzer.analyze(s, b, boardFile, series.toString(), options,
                 SeriesAnalyzer.emissivity(s.profile()), tunables.threads(), progress(err));
-        Path dir = output.out != null ? output.out : Path.of("risetrace-out", series.toAbsolutePath().normalize().getFileName().toString());
-        writeOutputs(a, dir, s.sidecar() == null ? null : s.sidecar().notes());
+        warnLeftOut(a, err);
+        writeOutputs(a, dir, s.sidecar() == null ? null : s.sidecar().notes(), output.force);
         if (output.json) {
             PrintWriter o = spec.commandLine().getOut();
             o.println(toJson(a));
@@ -143,7 +165,7 @@ public final class AnalyzeCommand implements Callable<Integer> {
         LockIn li = LockInAnalyzer.analyze(s, b, boardFile, series.toString(), options,
                 SeriesAnalyzer.emissivity(s.profile()), tunables.threads(), progress(err));
         Path dir = output.out != null ? output.out : Path.of("risetrace-out", series.toAbsolutePath().normalize().getFileName().toString());
-        writeLockIn(li, dir, s.sidecar() == null ? null : s.sidecar().notes());
+        writeLockIn(li, dir, s.sidecar() == null ? null : s.sidecar().notes(), output.force);
         PrintWriter o = spec.commandLine().getOut();
         if (output.json) {
             o.println(LockInReport.toJson(li).stripTrailing());
@@ -169,12 +191,21 @@ public final class AnalyzeCommand implements Callable<Integer> {
                 sv == null || sv.ref() == null ? "" : " " + sv.ref());
     }
 
-    static void writeLockIn(LockIn li, Path dir, String notes) {
+    static void writeLockIn(LockIn li, Path dir, String notes, boolean replace) {
         try {
-            LockInReport.writeAll(li, dir, notes);
+            LockInReport.writeAll(li, dir, notes, replace);
         } catch (UncheckedIOException e) {
             throw new InputRejected(dir, "cannot write the results: " + e.getCause().getMessage());
         }
+    }
+
+    /** Frames that could not be read (damaged, another size) are left out; the user hears of each on stderr. */
+    static void warnLeftOut(Analysis a, PrintWriter err) {
+        if (a.result().frames() == null) return;
+        for (org.risetrace.analysis.FrameRecord r : a.result().frames())
+            if (!r.used() && r.registration() != null && r.registration().reason() != null
+                    && r.registration().reason().startsWith("cannot read"))
+                err.println("risetrace: warning: left out " + r.file() + ": " + r.registration().reason());
     }
 
     /** One line for a verdict. */
@@ -211,10 +242,10 @@ public final class AnalyzeCommand implements Callable<Integer> {
         return AnalysisJson.toJson(a.result());
     }
 
-    /** analysis.json, parts.csv and report.html into dir. */
-    static void writeOutputs(Analysis a, Path dir, String notes) {
+    /** analysis.json, parts.csv and report.html into dir, as one set; an earlier set is replaced only with replace. */
+    static void writeOutputs(Analysis a, Path dir, String notes, boolean replace) {
         try {
-            Reports.writeAll(a, dir, notes);
+            Reports.writeAll(a, dir, notes, replace);
         } catch (UncheckedIOException e) {
             throw new InputRejected(dir, "cannot write the results: " + e.getCause().getMessage());
         }

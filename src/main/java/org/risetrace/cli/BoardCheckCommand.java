@@ -15,10 +15,13 @@ public final class BoardCheckCommand implements Callable<Integer> {
     @Parameters(index = "0", paramLabel = "<board.json>")
     Path file;
 
+    @picocli.CommandLine.Spec
+    picocli.CommandLine.Model.CommandSpec spec;
+
     @Override
     public Integer call() {
         Board b = BoardFile.read(file, Materials.load().names());
-        System.out.printf(java.util.Locale.ROOT, "%s: %s, %.1f x %.1f mm, %d parts, %d ambient areas, reference %s%n",
+        spec.commandLine().getOut().printf(java.util.Locale.ROOT, "%s: %s, %.1f x %.1f mm, %d parts, %d ambient areas, reference %s%n",
                 file, b.name(), b.widthMm(), b.heightMm(), b.partsOrEmpty().size(), b.ambientOrEmpty().size(),
                 b.outline().frame());
         return Main.EXIT_OK;

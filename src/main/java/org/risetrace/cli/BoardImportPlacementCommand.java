@@ -80,8 +80,8 @@ public final class BoardImportPlacementCommand implements Callable<Integer> {
         if (Files.exists(target) && !force)
             throw new org.risetrace.frame.InputRejected(target, "exists already", "use --force to replace it or --out");
         BoardFile.write(r.board(), target);
-        for (String n : r.notes()) System.err.println("risetrace: note: " + n);
-        System.out.println(r.board().partsOrEmpty().size() + " parts -> " + target);
+        for (String n : r.notes()) spec.commandLine().getErr().println("risetrace: note: " + n);
+        spec.commandLine().getOut().println(r.board().partsOrEmpty().size() + " parts -> " + target);
         return Main.EXIT_OK;
     }
 }

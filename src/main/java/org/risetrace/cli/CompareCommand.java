@@ -45,10 +45,11 @@ public final class CompareCommand implements Callable<Integer> {
     @Override
     public Integer call() {
         PrintWriter err = spec.commandLine().getErr();
-        Analysis a = run(before, after, board, output.profile, tunables, spec.commandLine(), err);
         Path dir = output.out != null ? output.out : Path.of("risetrace-out", "compare");
+        org.risetrace.report.Reports.checkOutputFolder(dir, output.force); // before the work, not after it
+        Analysis a = run(before, after, board, output.profile, tunables, spec.commandLine(), err);
         try {
-            ComparisonReport.writeAll(a, dir, null);
+            ComparisonReport.writeAll(a, dir, null, output.force);
         } catch (java.io.UncheckedIOException e) {
             throw new InputRejected(dir, "cannot write the results: " + e.getCause().getMessage());
         }

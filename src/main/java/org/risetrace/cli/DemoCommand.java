@@ -76,7 +76,8 @@ public final class DemoCommand implements Callable<Integer> {
                     SeriesAnalyzer.emissivity(s.profile()), SeriesAnalyzer.defaultThreads(),
                     AnalyzeCommand.progress(err));
             Path target = out.resolve(name);
-            AnalyzeCommand.writeOutputs(a, target, s.sidecar() == null ? null : s.sidecar().notes());
+            // the demo's folders are its own scratch space: a second demo run replaces them (each as one set)
+            AnalyzeCommand.writeOutputs(a, target, s.sidecar() == null ? null : s.sidecar().notes(), true);
             o.println(AnalyzeCommand.line(name, a.result().verdict()));
             Path truthFile = dir.resolve("truth.json");
             if (Files.isRegularFile(truthFile)) {
@@ -100,7 +101,7 @@ public final class DemoCommand implements Callable<Integer> {
         LockIn li = LockInAnalyzer.analyze(s, board, dir.resolve("board.json"), dir.toString(), options,
                 SeriesAnalyzer.emissivity(s.profile()), SeriesAnalyzer.defaultThreads(), AnalyzeCommand.progress(err));
         Path target = out.resolve(name);
-        AnalyzeCommand.writeLockIn(li, target, s.sidecar() == null ? null : s.sidecar().notes());
+        AnalyzeCommand.writeLockIn(li, target, s.sidecar() == null ? null : s.sidecar().notes(), true);
         o.println(AnalyzeCommand.line(name, li.result().verdict()));
         o.println("  " + AnalyzeCommand.modeLine(li));
         boolean ok = true;

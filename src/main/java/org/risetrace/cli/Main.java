@@ -25,6 +25,8 @@ public final class Main implements Runnable {
     public static final int EXIT_OK = 0;
     public static final int EXIT_INPUT_REJECTED = 1;
     public static final int EXIT_USAGE = 2;
+    /** A fault of the tool itself (a stack trace on stderr): please report it with the input that caused it. */
+    public static final int EXIT_INTERNAL_ERROR = 3;
 
     @CommandLine.Spec
     CommandLine.Model.CommandSpec spec;
@@ -40,11 +42,22 @@ public final class Main implements Runnable {
 
     /** Runs the command line and returns the exit code (tests call this instead of main). */
     public static int run(String... args) {
-        return commandLine().execute(args);
+        CommandLine cl = commandLine();
+        try {
+            return cl.execute(args);
+        } finally {
+            cl.getOut().flush();
+            cl.getErr().flush();
+        }
     }
 
     public static CommandLine commandLine() {
         CommandLine cl = new CommandLine(new Main());
+        // control characters from user files (designators, file names) never reach the terminal
+        cl.setOut(new java.io.PrintWriter(new TerminalSafeWriter(new java.io.OutputStreamWriter(System.out,
+                java.nio.charset.StandardCharsets.UTF_8)), true));
+        cl.setErr(new java.io.PrintWriter(new TerminalSafeWriter(new java.io.OutputStreamWriter(System.err,
+                java.nio.charset.StandardCharsets.UTF_8)), true));
         cl.setExecutionExceptionHandler((ex, commandLine, parseResult) -> {
             Throwable t = ex;
             while (t != null && !(t instanceof InputRejected)) t = t.getCause();
@@ -60,7 +73,7 @@ public final class Main implements Runnable {
             c.getErr().println("try: " + c.getCommandSpec().qualifiedName() + " --help");
             return EXIT_USAGE;
         });
-        cl.setExitCodeExceptionMapper(t -> t instanceof InputRejected ? EXIT_INPUT_REJECTED : 3);
+        cl.setExitCodeExceptionMapper(t -> t instanceof InputRejected ? EXIT_INPUT_REJECTED : EXIT_INTERNAL_ERROR);
         return cl;
     }
 }

@@ -12,6 +12,9 @@ final class OutputOptions {
     @Option(names = "--json", description = "print analysis.json on stdout; messages go to stderr")
     boolean json;
 
+    @Option(names = "--force", description = "replace an earlier analysis in the output folder (default: refuse)")
+    boolean force;
+
     @Option(names = "--profile", paramLabel = "<name|file>", description = "calibration profile (overrides series.json)")
     String profile;
 }

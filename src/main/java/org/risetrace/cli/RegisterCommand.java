@@ -46,8 +46,11 @@ public final class RegisterCommand implements Callable<Integer> {
 
     @Override
     public Integer call() {
+        if (pxPerMm != 0 && !(Double.isFinite(pxPerMm) && pxPerMm > 0))
+            throw new picocli.CommandLine.ParameterException(spec.commandLine(),
+                    "--px-per-mm must be a positive number, got " + pxPerMm);
         Series series = Series.open(folder);
-        for (String w : series.warnings()) System.err.println("risetrace: warning: " + w);
+        for (String w : series.warnings()) spec.commandLine().getErr().println("risetrace: warning: " + w);
         Path bf = boardFile != null ? boardFile : folder.resolve("board.json");
         Board board = BoardFile.read(bf, Materials.load().names());
         int refIndex = -1;
@@ -55,6 +58,7 @@ public final class RegisterCommand implements Callable<Integer> {
         if (refIndex < 0)
             throw new InputRejected(bf, "reference frame '" + board.outline().frame() + "' (outline.frame) is not in "
                     + folder, "name one of the series' frame files");
+        if (writeRectified && pxPerMm > 0) org.risetrace.analysis.MemoryBudget.boardRasterPixels(board, pxPerMm, bf);
         Frame reference = series.read(refIndex);
         Path dir = out != null ? out : folder;
         RegistrationConfig config;
@@ -68,12 +72,12 @@ public final class RegisterCommand implements Callable<Integer> {
         Path file = dir.resolve(SeriesRegistration.FILE_NAME);
         SeriesRegistration.write(report, file);
         RegistrationReport.Summary s = report.summary();
-        System.out.printf(Locale.ROOT, "%d frames: %d ok, %d weak, %d failed, %d marked; mean check residual %s px -> %s%n",
+        spec.commandLine().getOut().printf(Locale.ROOT, "%d frames: %d ok, %d weak, %d failed, %d marked; mean check residual %s px -> %s%n",
                 s.frames(), s.ok(), s.weak(), s.failed(), s.marked(),
                 s.meanRmsPx() == null ? "n/a" : String.format(Locale.ROOT, "%.3f", s.meanRmsPx()), file);
         for (RegistrationReport.Entry e : report.frames())
             if (e.reason() != null && !e.status().word().equals("marked") && !e.status().word().equals("ok"))
-                System.out.println("  " + e.file() + ": " + e.status().word() + ": " + e.reason());
+                spec.commandLine().getOut().println("  " + e.file() + ": " + e.status().word() + ": " + e.reason());
         return Main.EXIT_OK;
     }
 }

@@ -32,7 +32,25 @@ public class InputRejected extends RuntimeException {
         if (file != null) sb.append(file).append(": ");
         sb.append(reason);
         if (hint != null && !hint.isBlank()) sb.append(" (").append(hint).append(')');
-        return sb.toString();
+        return oneLine(sb.toString());
+    }
+
+    /**
+     * The message as one line without control characters: parts of it (file names, values, parser messages) come
+     * from the user's files, and a line feed or an ESC there would split the line or drive the terminal.
+     */
+    static String oneLine(String s) {
+        StringBuilder out = null;
+        for (int i = 0; i < s.length(); i++) {
+            char c = s.charAt(i);
+            if (c < 0x20 || (c >= 0x7F && c < 0xA0)) {
+                if (out == null) out = new StringBuilder(s.substring(0, i));
+                out.append(c == '\t' ? ' ' : '\uFFFD');
+            } else if (out != null) {
+                out.append(c);
+            }
+        }
+        return out == null ? s : out.toString();
     }
 
     public Path file() { return file; }

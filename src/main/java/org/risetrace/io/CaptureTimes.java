@@ -51,6 +51,7 @@ public final class CaptureTimes {
     /** The capture time in the file's metadata, or null when it has none (or the file is not JPEG/TIFF/PNG). */
     public static CaptureTime read(Path file) {
         byte[] head = new byte[4];
+        if (!Files.isRegularFile(file)) return null; // a FIFO would block the open
         try (InputStream in = Files.newInputStream(file)) {
             if (in.readNBytes(head, 0, 4) < 4) return null;
         } catch (IOException e) {

@@ -41,6 +41,15 @@ public final class FrameReaders {
         return read(readerFor(file, bytes), file, bytes, context);
     }
 
+    /**
+     * Decodes bytes already in memory as if read from {@code name} (its extension picks the text readers), with
+     * every check of {@link #read(Path, ReadContext)} but the file system's; for tests and fuzzing.
+     */
+    public static Frame read(Path name, byte[] bytes, ReadContext context) {
+        if (bytes.length == 0) throw new InputRejected(name, "empty file (0 bytes)");
+        return read(readerFor(name, bytes), name, bytes, context);
+    }
+
     /** True when the file's extension marks it as a frame (what a series folder picks up). */
     public static boolean isImageFile(Path file) {
         String name = file.getFileName().toString();
@@ -83,14 +92,17 @@ public final class FrameReaders {
      */
     static byte[] bytes(Path file, ReadContext context) {
         try {
-            if (Files.isDirectory(file)) throw new InputRejected(file, "is a folder, not a frame file");
+            org.risetrace.frame.InputFiles.requireRegularFile(file, "frame file");
             long size = Files.size(file);
             if (size == 0) throw new InputRejected(file, "empty file (0 bytes)");
             long limit = Math.min(Integer.MAX_VALUE - 16L, context.maxPixels() * 32L + (1L << 20));
+            String lower = file.getFileName().toString().toLowerCase(Locale.ROOT);
+            if (lower.endsWith(".csv") || lower.endsWith(".tsv")) limit = Math.min(limit, MatrixReader.MAX_BYTES);
             if (size > limit)
                 throw new InputRejected(file, "file of " + size + " bytes is larger than any frame within the pixel limit",
                         "raise the limit with --max-pixels if the frame is real");
-            return Files.readAllBytes(file);
+            // the size may change between the check and the read: read no more than the limit
+            return org.risetrace.frame.InputFiles.read(file, "frame file", limit);
         } catch (NoSuchFileException e) {
             throw new InputRejected(file, "file not found");
         } catch (IOException e) {

@@ -62,9 +62,21 @@ final class ImageIoDecoding {
             int w = reader.getWidth(0);
             int h = reader.getHeight(0);
             checkPixels(file, label, w, h, ctx.maxPixels());
+            // a Java array holds at most 2^31 - 1 samples: beyond, the plug-in fails with a message that reads
+            // like damage, which the file need not have
+            if ((long) w * h > Integer.MAX_VALUE - 8)
+                throw new InputRejected(file, String.format(Locale.ROOT, "%s of %d x %d pixels is too large to decode"
+                        + " (at most %d pixels in one raster)", label, w, h, Integer.MAX_VALUE - 8));
             reader.addIIOReadWarningListener((source, warning) -> warnings.add(warning));
             IIOMetadata md = metadata ? reader.getImageMetadata(0) : null;
-            BufferedImage img = reader.read(0);
+            BufferedImage img;
+            try {
+                img = reader.read(0);
+            } catch (OutOfMemoryError e) {
+                // the raster did not fit; nothing of it is kept, so the program can go on and say so
+                throw new InputRejected(file, String.format(Locale.ROOT, "not enough memory to decode a %d x %d %s",
+                        w, h, label), "run java with a larger heap (java -Xmx8g -jar risetrace.jar ...)");
+            }
             if (!warnings.isEmpty())
                 throw new InputRejected(file, "damaged " + label + " data: " + warnings.get(0));
             return new Decoded(img, md);

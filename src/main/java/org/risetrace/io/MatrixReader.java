@@ -18,6 +18,10 @@ import java.util.Locale;
  * a reading. Units come from the profile (matrix-celsius by default).
  */
 public final class MatrixReader implements FrameReader {
+    /** Largest text matrix, bytes: 64 MiB holds 4 M values of 16 characters (a 2048 x 2048 frame). */
+    public static final long MAX_BYTES = 64L << 20;
+    /** Longest line, characters: 65,536 values of 15 characters. */
+    static final int MAX_LINE_CHARS = 1 << 20;
 
     @Override
     public String container() {
@@ -36,14 +40,26 @@ public final class MatrixReader implements FrameReader {
     public RawSamples decode(Path file, byte[] bytes, ReadContext context) {
         String text = new String(bytes, StandardCharsets.UTF_8);
         if (text.startsWith("\uFEFF")) text = text.substring(1);
-        String[] lines = text.split("\n", -1);
+        if (bytes.length > MAX_BYTES)
+            throw new InputRejected(file, "text matrix of " + bytes.length + " bytes is larger than " + (MAX_BYTES >> 20)
+                    + " MiB");
         char sep = 0;
         boolean decimalComma = false;
         int width = -1, firstLine = -1, rows = 0;
         float[] values = new float[1024];
         int n = 0;
-        for (int li = 0; li < lines.length; li++) {
-            String line = lines[li];
+        // line by line without splitting the whole text (a file of blank lines would otherwise make millions of
+        // strings at once)
+        int li = -1;
+        for (int start = 0; start <= text.length(); ) {
+            li++;
+            int end = text.indexOf('\n', start);
+            if (end < 0) end = text.length();
+            if (end - start > MAX_LINE_CHARS)
+                throw new InputRejected(file, "line " + (li + 1) + " is longer than " + MAX_LINE_CHARS + " characters",
+                        "a text matrix holds one image row per line");
+            String line = text.substring(start, end);
+            start = end + 1;
             if (line.endsWith("\r")) line = line.substring(0, line.length() - 1);
             String trimmed = line.strip();
             if (trimmed.isEmpty() || trimmed.startsWith("#")) continue;

@@ -53,7 +53,7 @@ public final class PngReader implements FrameReader {
         int p = SIGNATURE.length;
         while (p + 12 <= b.length) {
             long length = ((b[p] & 0xFFL) << 24) | ((b[p + 1] & 0xFF) << 16) | ((b[p + 2] & 0xFF) << 8) | (b[p + 3] & 0xFF);
-            String type = new String(b, p + 4, 4, java.nio.charset.StandardCharsets.ISO_8859_1);
+            String type = chunkName(b, p + 4);
             if (length > b.length - p - 12L)
                 throw new InputRejected(file, "truncated PNG file: chunk " + type + " at byte " + p + " runs past the end");
             int n = (int) length;
@@ -67,6 +67,20 @@ public final class PngReader implements FrameReader {
             p = q + 4;
         }
         throw new InputRejected(file, "truncated PNG file: no IEND chunk");
+    }
+
+    /**
+     * A chunk type for messages: its four letters when it is one (ISO/IEC 15948 section 5.4: ASCII letters only),
+     * else its bytes in hex, so a damaged file's bytes never reach the message (a line feed split it; fuzzing found).
+     */
+    static String chunkName(byte[] b, int at) {
+        boolean letters = true;
+        for (int i = 0; i < 4; i++) {
+            int c = b[at + i] & 0xFF;
+            letters &= (c >= 'A' && c <= 'Z') || (c >= 'a' && c <= 'z');
+        }
+        if (letters) return new String(b, at, 4, java.nio.charset.StandardCharsets.US_ASCII);
+        return String.format(java.util.Locale.ROOT, "0x%02x%02x%02x%02x", b[at], b[at + 1], b[at + 2], b[at + 3]);
     }
 
     /** Bit depth, colour type and interlacing from the IHDR chunk (bytes 24, 25, 28 of the file). */

@@ -83,6 +83,8 @@ public final class Series implements Iterable<Frame> {
             throw new InputRejected(folder, "cannot list the folder: " + e.getMessage(), null, e);
         }
         Path sidecar = folder.resolve(Sidecars.FILE_NAME);
+        if (Files.exists(sidecar) || Files.isSymbolicLink(sidecar))
+            org.risetrace.frame.InputFiles.requireRegularFile(sidecar, "sidecar file");
         return build(folder, entries, Files.isRegularFile(sidecar) ? sidecar : null, profileOverrideOrNull,
                 maxPixels, true);
     }
@@ -96,7 +98,8 @@ public final class Series implements Iterable<Frame> {
         if (files.isEmpty()) throw new InputRejected(null, "no frame files named");
         Path folder = sidecarOrNull != null ? sidecarOrNull.toAbsolutePath().getParent()
                 : files.get(0).toAbsolutePath().getParent();
-        for (Path f : files) if (!Files.exists(f)) throw new InputRejected(f, "file not found");
+        for (Path f : files) org.risetrace.frame.InputFiles.requireRegularFile(f, "frame file");
+        if (sidecarOrNull != null) org.risetrace.frame.InputFiles.requireRegularFile(sidecarOrNull, "sidecar file");
         return build(folder, files, sidecarOrNull, profileOverrideOrNull, maxPixels, false);
     }
 
@@ -113,6 +116,13 @@ public final class Series implements Iterable<Frame> {
                 continue;
             }
             if (name.startsWith(".")) continue;
+            if (!Files.isRegularFile(p)) {
+                // a FIFO would block the first read forever, a device never ends
+                if (lower.equals(Sidecars.FILE_NAME))
+                    org.risetrace.frame.InputFiles.requireRegularFile(p, "sidecar file");
+                warnings.add("skipped " + name + ": not a regular file (a FIFO, device, socket or broken link)");
+                continue;
+            }
             if (lower.equals(Sidecars.FILE_NAME)) {
                 if (sidecarFile == null) sidecarFile = p;
                 continue;
@@ -153,8 +163,18 @@ public final class Series implements Iterable<Frame> {
         double[] t = new double[n];
         Instant[] instants = new Instant[n];
         String source = times(frames, sidecar, sidecarFile, entriesByName, t, instants, warnings);
-        return new Series(folder, sidecarFile, sidecar, profile, warnings, frames, t, instants, source, maxPixels,
-                reference);
+        Double start = sidecar.injection() == null ? null : sidecar.injection().startS();
+        if (start != null && start < t[0])
+            warnings.add(String.format(Locale.ROOT, "injection.start_s (%.3f s) is before the first frame (%.3f s):"
+                    + " no frame shows the board before the injection, so the first frame is taken as the baseline",
+                    start, t[0]));
+        else if (start != null && start >= t[n - 1])
+            warnings.add(String.format(Locale.ROOT, "injection.start_s (%.3f s) is at or after the last frame (%.3f s):"
+                    + " no frame shows the board during the injection", start, t[n - 1]));
+        Series series = new Series(folder, sidecarFile, sidecar, profile, warnings, frames, t, instants, source,
+                maxPixels, reference);
+        if (reference != null) series.checkTotal(reference);
+        return series;
     }
 
     private static String times(List<Path> frames, Sidecar sidecar, Path sidecarFile,
@@ -295,6 +315,7 @@ public final class Series implements Iterable<Frame> {
         int[] ref = referenceSize;
         if (ref == null) {
             if (i == 0) {
+                checkTotal(new int[]{f.width(), f.height()});
                 referenceSize = new int[]{f.width(), f.height()};
                 ref = referenceSize;
             } else {
@@ -307,9 +328,28 @@ public final class Series implements Iterable<Frame> {
         return f.withTime(tSeconds[i], instants[i]);
     }
 
+    /**
+     * The most pixels a series may hold over all its frames (every frame has the first one's size, so this is frames
+     * x first frame's pixels): 2^33, e.g. 28,000 frames of 640 x 480. Beyond it an analysis would run for hours.
+     */
+    public static final long MAX_SERIES_PIXELS = 1L << 33;
+
+    private void checkTotal(int[] size) {
+        requireTotal(folder, files.size(), size[0], size[1]);
+    }
+
+    static void requireTotal(Path folder, int frames, int width, int height) {
+        double total = (double) width * height * frames;
+        if (total > MAX_SERIES_PIXELS)
+            throw new InputRejected(folder, String.format(Locale.ROOT, "%d frames of %d x %d pixels are %.2f G pixels,"
+                            + " over the limit of %.2f G pixels per series", frames, width, height, total / 1e9,
+                    MAX_SERIES_PIXELS / 1e9), "split the series or bin the frames");
+    }
+
     private synchronized int[] probeReference() {
         if (referenceSize == null) {
             RawSamples s = FrameReaders.samples(files.get(0), new ReadContext(profile, spanC(0), maxPixels));
+            checkTotal(new int[]{s.width(), s.height()});
             referenceSize = new int[]{s.width(), s.height()};
         }
         return referenceSize;

@@ -9,7 +9,6 @@ import org.risetrace.frame.InputRejected;
 import org.risetrace.frame.JsonFieldLocation;
 
 import java.io.IOException;
-import java.nio.file.Files;
 import java.nio.file.NoSuchFileException;
 import java.nio.file.Path;
 import java.util.Map;
@@ -19,10 +18,8 @@ public final class Sidecars {
     /** The sidecar's file name in a series folder. */
     public static final String FILE_NAME = "series.json";
 
-    private static final ObjectMapper JSON = new ObjectMapper()
-            .enable(DeserializationFeature.FAIL_ON_UNKNOWN_PROPERTIES)
-            .enable(DeserializationFeature.FAIL_ON_TRAILING_TOKENS)
-            .enable(DeserializationFeature.FAIL_ON_NULL_FOR_PRIMITIVES);
+    private static final ObjectMapper JSON = org.risetrace.frame.StrictJson.builder()
+            .enable(DeserializationFeature.FAIL_ON_UNKNOWN_PROPERTIES).build();
 
     private Sidecars() {
     }
@@ -31,7 +28,7 @@ public final class Sidecars {
         Sidecar s;
         byte[] json = null;
         try {
-            json = Files.readAllBytes(file);
+            json = org.risetrace.frame.InputFiles.readDocument(file, "sidecar file");
             s = JSON.readValue(json, Sidecar.class);
         } catch (NoSuchFileException e) {
             throw new InputRejected(file, "sidecar file not found");
@@ -41,9 +38,11 @@ public final class Sidecars {
                     + (where.isEmpty() ? at(e.getLocation()) : where),
                     "known fields: " + e.getKnownPropertyIds());
         } catch (JsonProcessingException e) {
+            String dup = org.risetrace.frame.StrictJson.duplicateKey(e);
+            if (dup != null) throw new InputRejected(file, dup, "give each field once");
             throw new InputRejected(file, "malformed JSON" + at(e.getLocation()) + ": " + e.getOriginalMessage());
         } catch (IOException e) {
-            throw new InputRejected(file, "cannot read: " + e.getMessage(), null, e);
+            throw new InputRejected(file, "cannot read the sidecar file: " + e.getMessage(), null, e);
         }
         if (s == null) throw new InputRejected(file, "the sidecar is empty (null)", "write a JSON object {...}");
         return validate(s, file);

@@ -41,6 +41,10 @@ public final class TiffReader implements FrameReader {
                 throw new InputRejected(file, "TIFF stores grey as WhiteIsZero (PhotometricInterpretation 0)",
                         "export BlackIsZero greyscale or radiometric frames");
             checkExtents(file, ifd, bytes);
+            if (bits != 8 && bits != 16 && bits != 32)
+                throw new InputRejected(file, "TIFF with " + bits + " bits per sample is not supported",
+                        "export 8-bit, 16-bit or 32-bit float samples");
+            checkCompressedLengths(file, ifd, bytes);
         }
         if (ifd != null && plainSixteenBit(ifd)) return uncompressed(file, bytes, ifd, context);
         ImageIoDecoding.Decoded d = ImageIoDecoding.decode(file, source, "tiff", "TIFF", context, false);
@@ -71,6 +75,78 @@ public final class TiffReader implements FrameReader {
                 throw new InputRejected(file, "truncated TIFF file: " + (tiled ? "tile " : "strip ") + i
                         + " ends at byte " + end + " but the file has " + bytes.length + " bytes");
         }
+    }
+
+    /**
+     * A Deflate or PackBits strip or tile must decode to its full length: the JDK plug-in fills what a damaged one
+     * lacks with zeros (which became -273.15 C). Each is decoded here only to count its bytes (stopping at the
+     * expected count), TIFF 6.0 section 9 (PackBits) and the Adobe Deflate note (zlib streams, RFC 1950).
+     */
+    private static void checkCompressedLengths(Path file, TiffHeader ifd, byte[] bytes) {
+        long compression = ifd.value(TiffHeader.TAG_COMPRESSION, 1);
+        boolean deflate = compression == 8 || compression == 32946, packBits = compression == 32773;
+        if (!deflate && !packBits) return;
+        boolean tiled = ifd.has(TiffHeader.TAG_TILE_OFFSETS);
+        long[] offsets = ifd.values(bytes, tiled ? TiffHeader.TAG_TILE_OFFSETS : TiffHeader.TAG_STRIP_OFFSETS);
+        long[] counts = ifd.values(bytes, tiled ? TiffHeader.TAG_TILE_BYTE_COUNTS : TiffHeader.TAG_STRIP_BYTE_COUNTS);
+        long width = ifd.value(TiffHeader.TAG_IMAGE_WIDTH, 0), height = ifd.value(TiffHeader.TAG_IMAGE_LENGTH, 0);
+        long bits = ifd.value(TiffHeader.TAG_BITS_PER_SAMPLE, 1);
+        long spp = ifd.value(TiffHeader.TAG_PLANAR_CONFIGURATION, 1) == 2 ? 1 : ifd.value(TiffHeader.TAG_SAMPLES_PER_PIXEL, 1);
+        if (offsets == null || counts == null || width <= 0 || height <= 0 || spp <= 0) return;
+        long tw = tiled ? ifd.value(TiffHeader.TAG_TILE_WIDTH, 0) : width;
+        long tl = tiled ? ifd.value(TiffHeader.TAG_TILE_LENGTH, 0) : Math.min(ifd.value(TiffHeader.TAG_ROWS_PER_STRIP, height), height);
+        if (tw <= 0 || tl <= 0) return;
+        long rowBytes = (tw * spp * bits + 7) / 8;
+        long down = (height + tl - 1) / tl;
+        for (int i = 0; i < Math.min(offsets.length, counts.length); i++) {
+            // a strip at the bottom holds the remaining rows; a tile is always whole (padded)
+            long rows = tiled ? tl : Math.min(tl, height - (i % down) * tl);
+            long expected = rows * rowBytes;
+            if (expected <= 0 || expected > Integer.MAX_VALUE || offsets[i] < 0 || offsets[i] + counts[i] > bytes.length)
+                continue; // the extents check and the decoder report these
+            long got = deflate ? inflatedLength(bytes, (int) offsets[i], (int) counts[i], expected)
+                    : packBitsLength(bytes, (int) offsets[i], (int) counts[i], expected);
+            if (got < expected)
+                throw new InputRejected(file, "damaged TIFF: " + (tiled ? "tile " : "strip ") + i + " decodes to "
+                        + got + " of its " + expected + " bytes", "export the frame again");
+        }
+    }
+
+    private static long inflatedLength(byte[] b, int off, int len, long expected) {
+        java.util.zip.Inflater inf = new java.util.zip.Inflater();
+        try {
+            inf.setInput(b, off, len);
+            byte[] scratch = new byte[(int) Math.min(expected, 1 << 16)];
+            long total = 0;
+            while (total < expected) {
+                int n = inf.inflate(scratch, 0, (int) Math.min(scratch.length, expected - total));
+                if (n == 0 && (inf.finished() || inf.needsInput() || inf.needsDictionary())) break;
+                total += n;
+            }
+            return total;
+        } catch (java.util.zip.DataFormatException e) {
+            return 0;
+        } finally {
+            inf.end();
+        }
+    }
+
+    private static long packBitsLength(byte[] b, int off, int len, long expected) {
+        long total = 0;
+        int p = off, end = off + len;
+        while (p < end && total < expected) {
+            int n = b[p++];
+            if (n >= 0) {
+                int literal = Math.min(n + 1, end - p);
+                total += literal;
+                p += literal;
+            } else if (n != -128) {
+                if (p >= end) break;
+                total += 1 - n;
+                p++;
+            }
+        }
+        return total;
     }
 
     private static String detail(TiffHeader ifd, boolean predictor) {

@@ -15,4 +15,9 @@ public final class ComparisonReport {
     public static void writeAll(Analysis pair, Path outDir, String caseNotes) {
         Reports.writeAll(pair, outDir, caseNotes);
     }
+
+    /** As {@link Reports#writeAll(Analysis, Path, String, boolean)}: one set, an earlier one kept unless {@code replace}. */
+    public static void writeAll(Analysis pair, Path outDir, String caseNotes, boolean replace) {
+        Reports.writeAll(pair, outDir, caseNotes, replace);
+    }
 }

@@ -45,24 +45,17 @@ public final class LockInReport {
 
     /** Writes analysis.json, parts.csv and report.html into outDir (each through a temporary file and a move). */
     public static void writeAll(LockIn lockIn, Path outDir, String caseNotes) {
-        try {
-            Files.createDirectories(outDir);
-            replace(outDir.resolve(Reports.JSON_FILE), toJson(lockIn));
-            replace(outDir.resolve(Reports.CSV_FILE), PartsCsv.toCsv(lockIn.steady()));
-            replace(outDir.resolve(Reports.HTML_FILE), toHtml(lockIn, caseNotes));
-        } catch (IOException e) {
-            throw new UncheckedIOException("cannot write the results to " + outDir, e);
-        }
+        writeAll(lockIn, outDir, caseNotes, true);
     }
 
-    private static void replace(Path file, String text) throws IOException {
-        Path tmp = file.resolveSibling(file.getFileName() + ".tmp");
-        Files.writeString(tmp, text, StandardCharsets.UTF_8);
-        try {
-            Files.move(tmp, file, StandardCopyOption.REPLACE_EXISTING, StandardCopyOption.ATOMIC_MOVE);
-        } catch (java.nio.file.AtomicMoveNotSupportedException e) {
-            Files.move(tmp, file, StandardCopyOption.REPLACE_EXISTING);
-        }
+    /**
+     * The three outputs as one set ({@link OutputFolder}, as {@link Reports#writeAll}): rendered first, then a kill
+     * at any moment leaves the previous complete set or the new one; an earlier analysis is replaced only with
+     * {@code replace}.
+     */
+    public static void writeAll(LockIn lockIn, Path outDir, String caseNotes, boolean replace) {
+        String json = toJson(lockIn), csv = PartsCsv.toCsv(lockIn.steady()), html = toHtml(lockIn, caseNotes);
+        OutputFolder.write(outDir, OutputFolder.set(json, csv, html), replace);
     }
 
     /** The analysis.json document of a lock-in analysis. */

@@ -2,9 +2,6 @@ package org.risetrace.report;
 
 import org.risetrace.analysis.Analysis;
 
-import java.io.IOException;
-import java.io.UncheckedIOException;
-import java.nio.file.Files;
 import java.nio.file.Path;
 
 /** Writes every output of an analysis into one folder: analysis.json, parts.csv and report.html. */
@@ -27,13 +24,24 @@ public final class Reports {
 
     /** As {@link #writeAll(Analysis, Path)}, with case notes (e.g. the sidecar's notes) for the report header. */
     public static void writeAll(Analysis analysis, Path outDir, String caseNotes) {
-        try {
-            Files.createDirectories(outDir);
-        } catch (IOException e) {
-            throw new UncheckedIOException("cannot create the output folder " + outDir, e);
-        }
-        AnalysisJson.write(analysis.result(), outDir.resolve(JSON_FILE));
-        PartsCsv.write(analysis, outDir.resolve(CSV_FILE));
-        ReportHtml.write(analysis, outDir.resolve(HTML_FILE), caseNotes);
+        writeAll(analysis, outDir, caseNotes, true);
+    }
+
+    /**
+     * Writes the three outputs into {@code outDir} as one set ({@link OutputFolder}: a kill at any moment leaves the
+     * previous complete set or the new one). An earlier analysis there is replaced only with {@code replace}, else
+     * refused ({@code InputRejected}).
+     */
+    public static void writeAll(Analysis analysis, Path outDir, String caseNotes, boolean replace) {
+        // every file is rendered before anything is written: a failure while rendering leaves the folder untouched
+        String json = AnalysisJson.toJson(analysis.result());
+        String csv = PartsCsv.toCsv(analysis);
+        String html = ReportHtml.toHtml(analysis, caseNotes);
+        OutputFolder.write(outDir, OutputFolder.set(json, csv, html), replace);
+    }
+
+    /** Refuses an output folder that cannot take an analysis (see {@link OutputFolder#check}), before the work. */
+    public static void checkOutputFolder(Path outDir, boolean replace) {
+        OutputFolder.check(outDir, java.util.Set.of(JSON_FILE, CSV_FILE, HTML_FILE), replace);
     }
 }

@@ -47,8 +47,9 @@ public record Scenario(
         @JsonProperty("ambient") AmbientSpec ambient,
         @JsonProperty("marked") List<String> marked) {
 
-    static final ObjectMapper JSON = new ObjectMapper()
-            .enable(DeserializationFeature.FAIL_ON_UNKNOWN_PROPERTIES);
+    static final ObjectMapper JSON = org.risetrace.frame.StrictJson.builder()
+            .enable(DeserializationFeature.FAIL_ON_UNKNOWN_PROPERTIES)
+            .disable(DeserializationFeature.FAIL_ON_NULL_FOR_PRIMITIVES).build();
 
     /**
      * The board: size, laminate, copper, surface loss and the parts.
@@ -477,9 +478,9 @@ public record Scenario(
 
     /** Reads and validates a scenario file. */
     public static Scenario read(Path file) {
-        if (!Files.isRegularFile(file)) throw new InputRejected(file, "scenario file not found");
+        if (!Files.exists(file)) throw new InputRejected(file, "scenario file not found");
         try {
-            return parse(Files.readAllBytes(file), file);
+            return parse(org.risetrace.frame.InputFiles.readDocument(file, "scenario file"), file);
         } catch (IOException e) {
             throw new InputRejected(file, "cannot read scenario: " + e.getMessage());
         }

@@ -637,16 +637,13 @@ final class DirectRegistrar implements Registrar {
     }
 
     /**
-     * The largest displacement at the reference's board corners of the similarity correction (shift, rotation,
-     * zoom; closed-form least squares) fitted to the agreeing patches' residual shifts: patches can all agree
-     * within a fraction of a pixel while a small rotation or zoom error grows to more than a pixel at the corners,
-     * where the analysis' outline is measured. A similarity rather than an affine fit: the extra two parameters
-     * extrapolated patch noise to about 1 px at the corners of frames that were 0.05 px off. NaN when fewer than
-     * three patches agree or they all sit at one point.
-     */
-    /**
-     * The similarity correction fitted to the agreeing patches' residual shifts (as {@link #cornerCorrectionPx}),
-     * evaluated at the corners: {mean squared displacement, mean variance of that displacement from the fit's
+     * The similarity correction (shift, rotation, zoom; closed-form least squares) fitted to the agreeing patches'
+     * residual shifts, evaluated at the reference's board corners: patches can all agree within a fraction of a pixel
+     * while a small rotation or zoom error grows to more than a pixel at the corners, where the analysis' outline is
+     * measured. A similarity rather than an affine fit: the extra two parameters extrapolated patch noise to about
+     * 1 px at the corners of frames that were 0.05 px off.
+     *
+     * <p>Returned: {mean squared displacement at the corners, mean variance of that displacement from the fit's
      * residuals (s^2 (A^T A)^-1 propagated, 2n - 4 degrees of freedom)}; NaN where too few patches.
      */
     static double[] patchCornerStats(double[] pts, int n, double[][] corners) {
@@ -692,26 +689,5 @@ final class DirectRegistrar implements Registrar {
         return Math.sqrt(Math.abs(jxx * jyy - jxy * jyx));
     }
 
-    static double cornerCorrectionPx(double[] pts, int n, double[][] corners) {
-        if (n < 3) return Double.NaN;
-        double mx = 0, my = 0, tx = 0, ty = 0;
-        for (int i = 0; i < n; i++) {
-            mx += pts[4 * i] / n; my += pts[4 * i + 1] / n; tx += pts[4 * i + 2] / n; ty += pts[4 * i + 3] / n;
-        }
-        double sa = 0, sb = 0, sr = 0;
-        for (int i = 0; i < n; i++) {
-            double x = pts[4 * i] - mx, y = pts[4 * i + 1] - my, dx = pts[4 * i + 2] - tx, dy = pts[4 * i + 3] - ty;
-            sa += x * dx + y * dy;
-            sb += x * dy - y * dx;
-            sr += x * x + y * y;
-        }
-        if (!(sr > 1e-9)) return Double.NaN;
-        double a = sa / sr, b = sb / sr, worst = 0;
-        for (double[] c : corners) {
-            double x = c[0] - mx, y = c[1] - my;
-            worst = Math.max(worst, Math.hypot(a * x - b * y + tx, b * x + a * y + ty));
-        }
-        return worst;
-    }
 
 }

@@ -27,7 +27,6 @@ import static org.junit.jupiter.api.Assertions.assertFalse;
 import static org.junit.jupiter.api.Assertions.assertNotNull;
 import static org.junit.jupiter.api.Assertions.assertNull;
 import static org.junit.jupiter.api.Assertions.assertTrue;
-import static org.junit.jupiter.api.Assumptions.assumeTrue;
 
 /**
  * The rise plot's dashed line is the chosen model and follows the measured points; parts that never rose get none.
@@ -108,7 +107,7 @@ class RiseCurvePlotTest {
     @Test
     void bundledPhaseShortLinesFollowTheirPointsAndColdPartsHaveNone() {
         Path dir = Path.of("sample-frames", "phase-short");
-        assumeTrue(Files.isDirectory(dir), "bundled series absent");
+        assertTrue(Files.isDirectory(dir), "bundled series missing");
         Series s = Series.open(dir);
         Board b = BoardFile.read(dir.resolve("board.json"), Materials.load().names());
         Analysis a = SeriesAnalyzer.analyze(s, b, dir.resolve("board.json"), dir.toString(), AnalysisOptions.defaults(),

@@ -157,4 +157,52 @@ class OutputFindingsTest {
         for (int i = text.indexOf(what); i >= 0; i = text.indexOf(what, i + 1)) n++;
         return n;
     }
+
+    // --- the three analysis commands through the command line entry point (issue 17: never run that way before)
+
+    @Test
+    void demoThroughTheEntryPointChecksEachSeriesAgainstItsTruth(@TempDir Path dir) throws IOException {
+        Path samples = dir.resolve("samples"), out = dir.resolve("out");
+        Path copy = samples.resolve("before-after");
+        Files.createDirectories(copy);
+        try (var files = Files.list(BEFORE_AFTER)) {
+            for (Path f : (Iterable<Path>) files::iterator) Files.copy(f, copy.resolve(f.getFileName()));
+        }
+        InspectCommandTest.Result r = InspectCommandTest.run("demo", "--samples", samples.toString(), "--out",
+                out.toString());
+        assertEquals(Main.EXIT_OK, r.code(), r.err());
+        // truth.json of the demo: U3 (the LED driver) is the source
+        assertTrue(r.out().startsWith("before-after: identified U3 - U3 warmed most"), r.out());
+        assertTrue(r.out().contains("  matches the simulation's truth"), r.out());
+        for (String f : new String[]{"analysis.json", "parts.csv", "report.html"})
+            assertTrue(Files.size(out.resolve("before-after").resolve(f)) > 0, f);
+        JsonNode doc = new ObjectMapper().readTree(out.resolve("before-after").resolve("analysis.json").toFile());
+        assertEquals("compare", doc.get("parameters").get("mode").asText());
+        assertEquals("U3", doc.get("verdict").get("ref").asText());
+
+        InspectCommandTest.Result empty = InspectCommandTest.run("demo", "--samples", dir.resolve("none").toString(),
+                "--out", out.toString());
+        assertEquals(Main.EXIT_INPUT_REJECTED, empty.code(), empty.out());
+        assertEquals(1, empty.err().lines().count(), empty.err());
+    }
+
+    @Test
+    void analyzeAndCompareWithJsonPrintOnlyTheDocument(@TempDir Path dir) throws IOException {
+        ObjectMapper m = new ObjectMapper();
+        InspectCommandTest.Result a = InspectCommandTest.run("analyze", PHASE_SHORT.toString(), "--json", "--out",
+                dir.resolve("a").toString());
+        assertEquals(Main.EXIT_OK, a.code(), a.err());
+        JsonNode doc = m.readTree(a.out());
+        // truth.json of the demo: Q3 shorted
+        assertEquals("Q3", doc.get("verdict").get("ref").asText());
+        assertEquals(m.readTree(dir.resolve("a").resolve("analysis.json").toFile()).get("verdict"), doc.get("verdict"));
+        InspectCommandTest.Result c = InspectCommandTest.run("compare", BEFORE_AFTER.resolve("f0001.tif").toString(),
+                BEFORE_AFTER.resolve("f0002.tif").toString(), "--json", "--out", dir.resolve("c").toString());
+        assertEquals(Main.EXIT_OK, c.code(), c.err());
+        assertEquals("U3", m.readTree(c.out()).get("verdict").get("ref").asText());
+        // a missing series folder: exit 1, one line naming it
+        InspectCommandTest.Result missing = InspectCommandTest.run("analyze", dir.resolve("nope").toString());
+        assertEquals(Main.EXIT_INPUT_REJECTED, missing.code());
+        assertTrue(missing.err().contains("nope") && missing.err().lines().count() == 1, missing.err());
+    }
 }

@@ -121,4 +121,18 @@ class VerdictsTest {
         Verdict w = Verdicts.decide(List.of(c), List.of(), 0.1, 0, 20, O);
         assertEquals("nothing rose above 3.0 times the measured noise", w.reason());
     }
+
+    @Test
+    void weakRegistrationIsNotedButDoesNotDecideByNumber() {
+        // the rule since the mapping error became part of every rate's error: 10 weak frames of 20 (over the
+        // weak_fraction_limit of 0.25) leave a clear lead identified, with a note; 2 of 20 add no note
+        Verdicts.Candidate lead = new Verdicts.Candidate("Q1", 1.0, 0.1, true, 5.0);
+        Verdicts.Candidate second = new Verdicts.Candidate("U2", 0.3, 0.05, true, 2.0);
+        Verdict many = Verdicts.decide(List.of(lead, second), List.of(), 0.1, 10, 20, O);
+        assertEquals(VerdictStatus.IDENTIFIED, many.status(), many.reason());
+        assertTrue(many.reason().contains("(registration weak in 10 of 20 frames"), many.reason());
+        Verdict few = Verdicts.decide(List.of(lead, second), List.of(), 0.1, 2, 20, O);
+        assertEquals(VerdictStatus.IDENTIFIED, few.status());
+        assertTrue(!few.reason().contains("registration weak"), few.reason());
+    }
 }

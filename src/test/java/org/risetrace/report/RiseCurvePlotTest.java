@@ -131,4 +131,24 @@ class RiseCurvePlotTest {
         assertTrue(drawn.contains("Q3"), "drawn: " + drawn);
         assertFalse(a.curves().stream().allMatch(c -> c.onsetS() != null), "phase-short has parts that never rose");
     }
+
+    @Test
+    void fitLineIsDashedAlongItsWholeLength() {
+        // issue 17: the caption says dashed, but drawn segment by segment each short segment restarted the dash
+        // pattern and the line looked solid; drawn as one path per series the pattern runs along the whole line
+        Analysis a = DemoAnalysis.build();
+        JFreeChart chart = Plots.curvesChart(a.curves(), 10.0);
+        XYPlot plot = (XYPlot) chart.getPlot();
+        org.jfree.chart.renderer.xy.XYLineAndShapeRenderer r =
+                (org.jfree.chart.renderer.xy.XYLineAndShapeRenderer) plot.getRenderer();
+        assertTrue(r.getDrawSeriesLineAsPath(), "one path per series");
+        XYSeriesCollection data = (XYSeriesCollection) plot.getDataset();
+        int fit = data.getSeriesIndex(a.curves().get(0).ref() + " fitted model");
+        java.awt.BasicStroke stroke = (java.awt.BasicStroke) r.getSeriesStroke(fit);
+        assertNotNull(stroke.getDashArray(), "the fit line is dashed");
+        assertTrue(r.getSeriesLinesVisible(fit) && !r.getSeriesShapesVisible(fit));
+        // the measured points are dots without a line when a fit is drawn over them
+        int measured = data.getSeriesIndex(a.curves().get(0).ref());
+        assertEquals(Boolean.FALSE, r.getSeriesLinesVisible(measured));
+    }
 }

@@ -6,6 +6,8 @@ import com.tngtech.archunit.core.importer.ImportOption;
 import org.junit.jupiter.api.Test;
 
 import static com.tngtech.archunit.lang.syntax.ArchRuleDefinition.noClasses;
+import static org.junit.jupiter.api.Assertions.assertFalse;
+import static org.junit.jupiter.api.Assertions.assertTrue;
 
 /** Keeps the pipeline's dependency arrows (DEVELOPERS.md, "The pipeline") true. */
 class ArchitectureTest {
@@ -13,13 +15,37 @@ class ArchitectureTest {
             .withImportOption(ImportOption.Predefined.DO_NOT_INCLUDE_TESTS)
             .importPackages("org.risetrace");
 
+    /** Packages the conventions plan but that are not built yet; a rule about them applies once they exist. */
+    private static final java.util.Set<String> PLANNED = java.util.Set.of("web", "archive", "batch");
+
+    private static boolean present(String pkg) {
+        String name = "org.risetrace." + pkg;
+        return CLASSES.stream().anyMatch(c -> c.getPackageName().equals(name) || c.getPackageName().startsWith(name + "."));
+    }
+
+    /**
+     * No class of {@code pkg} may use the forbidden packages. The rule never passes on an empty set of classes
+     * (ArchUnit's default): a package that is not planned must exist, so a renamed package fails here instead of
+     * silently passing; a planned package that does not exist yet is skipped, and checked as soon as it appears.
+     */
     private static void mayNotUse(String pkg, String... forbidden) {
+        if (!present(pkg)) {
+            assertTrue(PLANNED.contains(pkg), "package org.risetrace." + pkg + " has no classes");
+            return;
+        }
         String[] full = new String[forbidden.length];
         for (int i = 0; i < forbidden.length; i++) full[i] = "org.risetrace." + forbidden[i] + "..";
         noClasses().that().resideInAPackage("org.risetrace." + pkg + "..")
                 .should().dependOnClassesThat().resideInAnyPackage(full)
-                .allowEmptyShould(true)
                 .check(CLASSES);
+    }
+
+    @Test
+    void everyPipelinePackageHasClasses() {
+        for (String pkg : new String[]{"frame", "io", "calibration", "board", "registration", "analysis", "report",
+                "sim", "cli", "planning"})
+            assertTrue(present(pkg), "org.risetrace." + pkg);
+        assertFalse(present("no_such_stage"), "the presence check can fail");
     }
 
     @Test

@@ -19,6 +19,11 @@ import java.util.List;
 public record Analysis(AnalysisResult result, Board board, List<RiseCurve> curves,
                        BoardMap riseMap, BoardMap onsetMap, BoardRaster lastFrame) {
 
+    /** This analysis with other frame records in the result. */
+    public Analysis withFrames(List<FrameRecord> records) {
+        return new Analysis(result.withFrames(records), board, curves, riseMap, onsetMap, lastFrame);
+    }
+
     /** This analysis with its series folder's bench readings in the result (null: none). */
     public Analysis withBenchReadings(org.risetrace.planning.BenchReadings readings) {
         return new Analysis(result.withBenchReadings(readings), board, curves, riseMap, onsetMap, lastFrame);

@@ -56,6 +56,12 @@ public record AnalysisResult(
                 hotspots, frames, null);
     }
 
+    /** This result with other frame records (the same frames, with more said about them). */
+    public AnalysisResult withFrames(List<FrameRecord> records) {
+        return new AnalysisResult(schema, tool, version, createdUtc, series, board, profile, parameters, injection,
+                verdict, parts, hotspots, records, benchReadings);
+    }
+
     /** This result with the bench readings of its series folder. */
     public AnalysisResult withBenchReadings(BenchReadings readings) {
         return new AnalysisResult(schema, tool, version, createdUtc, series, board, profile, parameters, injection,

@@ -1,6 +1,7 @@
 package org.risetrace.analysis;
 
 import com.fasterxml.jackson.annotation.JsonProperty;
+import com.fasterxml.jackson.annotation.JsonPropertyOrder;
 
 /**
  * One source frame as the analysis used it.
@@ -10,13 +11,26 @@ import com.fasterxml.jackson.annotation.JsonProperty;
  * @param sha256       SHA-256 of the file's bytes
  * @param used         false when the frame was left out (registration failed)
  * @param registration how it was mapped onto the board
+ * @param instant      absolute capture time from the image metadata (ISO-8601), null when the file gives none
  */
+@JsonPropertyOrder({"file", "t_s", "instant", "sha256", "used", "registration"})
 public record FrameRecord(
         @JsonProperty("file") String file,
         @JsonProperty("t_s") double tS,
         @JsonProperty("sha256") String sha256,
         @JsonProperty("used") boolean used,
-        @JsonProperty("registration") Registration registration) {
+        @JsonProperty("registration") Registration registration,
+        @JsonProperty("instant") String instant) {
+
+    /** Without a capture instant. */
+    public FrameRecord(String file, double tS, String sha256, boolean used, Registration registration) {
+        this(file, tS, sha256, used, registration, null);
+    }
+
+    /** This record with its capture instant (null: none). */
+    public FrameRecord withInstant(java.time.Instant at) {
+        return new FrameRecord(file, tS, sha256, used, registration, at == null ? null : at.toString());
+    }
 
     /**
      * @param status         ok, weak, failed or marked

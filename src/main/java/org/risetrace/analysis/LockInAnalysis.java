@@ -251,8 +251,7 @@ public final class LockInAnalysis implements Consumer<FrameSample> {
                             + lead.ref() + ", " + amp(lead) + ")");
         if (topUnmarked && (lead == null || !Double.isFinite(mapPeaks[0])
                 || top.riseK() - mapPeaks[0] > k * sm.sigma() * Math.sqrt(2)))
-            return new Verdict(VerdictStatus.INCONCLUSIVE, lead == null ? null : lead.ref(), null,
-                    second == null ? null : second.ref(), null, String.format(Locale.ROOT,
+            return new Verdict(VerdictStatus.INCONCLUSIVE, null, null, null, null, String.format(Locale.ROOT,
                     "the strongest periodic spot, at %.1f, %.1f mm (amplitude %.4f K), is on no marked part: "
                             + "mark the part there and analyse again", top.xMm(), top.yMm(), top.riseK()));
         if (second == null || !Double.isFinite(second.amplitudeK()))

@@ -29,6 +29,15 @@ public final class PairAnalysis {
 
     public static Analysis compare(Frame before, Frame after, Board board, BoardMapper mapper, AmbientSampler ambient,
                                    AnalysisOptions o, SeriesAnalysis.Context context) {
+        return compare(before, after, board, mapper, ambient, o, context, EmissivityModel.none());
+    }
+
+    /**
+     * As above, each part's rise turned into an object-temperature rise with its material's emissivity: a rise scales
+     * with the emissivity correction's gain over the part's two apparent temperatures, as in the series analysis.
+     */
+    public static Analysis compare(Frame before, Frame after, Board board, BoardMapper mapper, AmbientSampler ambient,
+                                   AnalysisOptions o, SeriesAnalysis.Context context, EmissivityModel emissivity) {
         List<Part> parts = board.partsOrEmpty();
         FrameRegistration rb = mapper.register(before), ra = mapper.register(after);
         List<FrameRecord> records = List.of(record(before, rb), record(after, ra));
@@ -63,11 +72,18 @@ public final class PairAnalysis {
         fs.sample(xa.celsius(), xa.valid(), sa);
         double partSigma = Math.sqrt(2) * pixelSigma;
         int np = parts.size();
-        double[] rise = new double[np], valid = new double[np], peak = new double[np];
+        double[] rise = new double[np], valid = new double[np], peak = new double[np], gain = new double[np];
+        Double[] eps = new Double[np];
         List<Verdicts.Candidate> cands = new ArrayList<>();
         for (int p = 0; p < np; p++) {
             int o95 = p * FootprintSampler.STATS + FootprintSampler.P95, ov = p * FootprintSampler.STATS + FootprintSampler.VALID;
-            rise[p] = sa[o95] - sb[o95] - ambDelta;
+            EmissivityModel.Emissivity e = emissivity.forMaterial(parts.get(p).material());
+            double lo = Math.min(sa[o95], sb[o95]), hi = Math.max(sa[o95], sb[o95]);
+            double refl = context.reflectedC() != null ? context.reflectedC() : Double.isFinite(ambB) ? ambB : lo;
+            gain[p] = Double.isFinite(lo) && Double.isFinite(refl)
+                    ? new SeriesAnalysis.CorrectionTable(emissivity, e.value(), refl, lo, hi).gain() : 1.0;
+            eps[p] = Double.isFinite(lo) ? e.value() : null;
+            rise[p] = gain[p] * (sa[o95] - sb[o95] - ambDelta);
             valid[p] = Math.min(sa[ov], sb[ov]);
             float pk = Float.NaN;
             for (int k : fs.indices(p)) {
@@ -76,8 +92,9 @@ public final class PairAnalysis {
             }
             peak[p] = pk;
             Double r = Double.isFinite(rise[p]) ? rise[p] : null;
-            cands.add(new Verdicts.Candidate(parts.get(p).ref(), r, r == null ? null : partSigma,
-                    r != null && r > o.kSigma() * partSigma, pk));
+            double sigmaP = gain[p] * partSigma;
+            cands.add(new Verdicts.Candidate(parts.get(p).ref(), r, r == null ? null : sigmaP,
+                    r != null && r > o.kSigma() * sigmaP, pk));
         }
         Integer[] order = new Integer[np];
         for (int p = 0; p < np; p++) order[p] = p;
@@ -100,8 +117,8 @@ public final class PairAnalysis {
             if (valid[p] < 0.9) warnings.add(String.format(java.util.Locale.ROOT,
                     "partly outside the frame: %.0f %% of the footprint was visible in both frames", 100 * valid[p]));
             results.add(new PartResult(parts.get(p).ref(), rank + 1, null, null, Double.isFinite(rise[p]) ? rise[p] : null,
-                    null, null, null, null, null, null, Double.isFinite(partSigma) ? partSigma : null, valid[p], null,
-                    warnings));
+                    null, null, null, null, null, null, Double.isFinite(partSigma) ? gain[p] * partSigma : null, valid[p],
+                    eps[p], warnings));
             curves.add(new RiseCurve(parts.get(p).ref(), new double[]{before.tSeconds(), after.tSeconds()},
                     new double[]{0, rise[p]}, null, null, null));
         }
@@ -116,7 +133,7 @@ public final class PairAnalysis {
     private static FrameRecord record(Frame f, FrameRegistration r) {
         return new FrameRecord(f.fileName(), f.tSeconds(), f.sha256(), usable(r), r == null ? null
                 : new FrameRecord.Registration(r.status().word(), Double.isFinite(r.rmsPx()) ? r.rmsPx() : null,
-                r.reason(), r.boardCornersPx()));
+                r.reason(), r.boardCornersPx())).withInstant(f.instant());
     }
 
     private static AnalysisResult result(Verdict v, List<PartResult> parts, List<Hotspot> hotspots,

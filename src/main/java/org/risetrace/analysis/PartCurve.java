@@ -17,6 +17,7 @@ import java.util.Arrays;
  * @param baselineC  the part's baseline temperature (mean of the baseline frames)
  * @param noiseK     measured noise sigma of the rise
  * @param onsetS     series time of the first of {@code onsetFrames} consecutive frames above k sigma; null if none
+ *                   or when the end rise is not above k sigma (the part did not stay heated)
  * @param rate       initial rate fit over the early window (null when too few frames)
  * @param fit        the rise model with one or two time constants (null when the part shows no onset or no model
  *                   is determined; {@link RiseModelFit} states the choice)
@@ -83,12 +84,16 @@ public record PartCurve(double[] riseK, double baselineC, double noiseK, Double 
             rate = new LineFit(rate.intercept(), rate.slope(), Math.hypot(rate.slopeSe(), floor), rate.residualSigma(), rate.n());
         }
 
+        int last = Math.max(baseline, n - o.lastFrames());
+        double end = meanFinite(rise, Math.min(last, n - 1), n);
+        // a part heated only if it is still risen at the end: a few noisy frames above threshold on a part whose
+        // end rise is under k sigma (or negative) are no onset
+        if (onset != null && !(end > o.kSigma() * noise)) onset = null;
+
         // only a part that heated is fitted; RiseModelFit drops a model the series does not determine (a curve
         // still straight at its end, a second constant not told apart from the first)
         RiseModelFit fit = onset == null || !fitRise ? null : RiseModelFit.fit(tS, rise, tStartS);
 
-        int last = Math.max(baseline, n - o.lastFrames());
-        double end = meanFinite(rise, Math.min(last, n - 1), n);
         return new PartCurve(rise, base, noise, onset, rate, fit, end);
     }
 

@@ -87,9 +87,19 @@ public final class SeriesAnalyzer {
             @Override public double tSeconds(int i) { return series.tSeconds(i); }
             @Override public Frame read(int i) { return series.read(i); }
         };
-        return Analyzer.run(source, board, () -> mapper(registrar, rectifier),
+        Analysis a = Analyzer.run(source, board, () -> mapper(registrar, rectifier),
                 () -> AmbientSampler.forBoard(board, options.ambientGapMm(), options.ambientBandMm()), sa, alsoInOrder,
                 threads, progress).withBenchReadings(readings);
+        return a.withFrames(withInstants(a.result().frames(), series));
+    }
+
+    /** Each frame record with its capture instant from the image metadata, matched by file name. */
+    static List<FrameRecord> withInstants(List<FrameRecord> records, Series series) {
+        java.util.Map<String, java.time.Instant> at = new java.util.HashMap<>();
+        for (int i = 0; i < series.size(); i++) at.put(series.fileName(i), series.instant(i));
+        List<FrameRecord> out = new java.util.ArrayList<>(records.size());
+        for (FrameRecord r : records) out.add(r.withInstant(at.get(r.file())));
+        return out;
     }
 
     /** The folder's readings.csv, assessed; null when there is none (planning stage, {@link ReadingsFile}). */
@@ -102,6 +112,22 @@ public final class SeriesAnalyzer {
     /** Compares two frames; the board outline is marked on one of them (or on a frame that looks like them). */
     public static Analysis compare(Frame before, Frame after, Board board, Path boardFile, AnalysisOptions options,
                                    String profileName) {
+        return compare(before, after, board, boardFile, options, null, null, profileName);
+    }
+
+    /**
+     * As above with the frames' sidecar and profile: the sidecar's injection record and reflected temperature go
+     * into analysis.json and the emissivity correction, the profile's band and materials correct each part's rise
+     * (both may be null: no injection record, no correction).
+     */
+    public static Analysis compare(Frame before, Frame after, Board board, Path boardFile, AnalysisOptions options,
+                                   Sidecar sidecar, Profile profile) {
+        return compare(before, after, board, boardFile, options, sidecar, profile,
+                profile == null ? null : profile.name());
+    }
+
+    private static Analysis compare(Frame before, Frame after, Board board, Path boardFile, AnalysisOptions options,
+                                    Sidecar sidecar, Profile profile, String profileName) {
         String refName = board.outline() == null ? null : board.outline().frame();
         Frame reference = after.fileName().equals(refName) ? after : before;
         double pxPerMm = options.pxPerMm() != null ? options.pxPerMm() : Rectifier.defaultPxPerMm(board);
@@ -111,9 +137,11 @@ public final class SeriesAnalyzer {
         Registrar registrar = Registrars.create(reference, board, RegistrationConfig.defaults());
         AmbientSampler ambient = AmbientSampler.forBoard(board, options.ambientGapMm(), options.ambientBandMm());
         SeriesAnalysis.Context context = new SeriesAnalysis.Context(before.source() + " -> " + after.source(),
-                boardFile == null ? null : boardFile.toString(), profileName, null, null, version(), ambient.source());
+                boardFile == null ? null : boardFile.toString(), profileName,
+                sidecar == null ? null : sidecar.injection(), sidecar == null ? null : sidecar.reflectedC(), version(),
+                ambient.source());
         return PairAnalysis.compare(before, after, board, mapper(registrar, new Rectifier(board, pxPerMm)), ambient,
-                options, context);
+                options, context, emissivity(profile));
     }
 
     /**

@@ -133,17 +133,29 @@ public final class Verdicts {
         String secondRef = second == null ? null : second.ref();
         Double leadRate = lead == null ? null : lead.rateKPerS();
 
+        if (ranked.isEmpty()) {
+            // nothing to rank: said first, whatever the map shows (every other rule speaks of marked parts)
+            Hotspot hottest = hotspots.isEmpty() ? null : hotspots.get(0);
+            return new Verdict(VerdictStatus.INCONCLUSIVE, null, null, null, null, "the board file marks no parts"
+                    + (hottest == null ? "" : String.format(Locale.ROOT,
+                    "; the hottest spot is at %.1f, %.1f mm (rise %.2f K): mark the part there", hottest.xMm(),
+                    hottest.yMm(), hottest.riseK())));
+        }
         boolean anyRise = !hotspots.isEmpty();
         for (Candidate c : ranked)
             if (c.onset() || significant(c, k)) anyRise = true;
+        boolean noiseMeasured = Double.isFinite(mapSigma);
+        for (Candidate c : ranked) if (c.rateSe() != null && Double.isFinite(c.rateSe())) noiseMeasured = true;
         if (!anyRise)
-            return new Verdict(VerdictStatus.NO_HEATING, null, leadRate, secondRef, sep,
-                    "nothing rose above " + num(k) + " times the measured noise");
+            return new Verdict(VerdictStatus.NO_HEATING, null, leadRate, secondRef, sep, noiseMeasured
+                    ? "nothing rose above " + num(k) + " times the measured noise"
+                    : "no rise could be shown: no part's noise could be measured (too few usable frames)");
 
         Hotspot top = hotspots.isEmpty() ? null : hotspots.get(0);
         if (top != null && top.ref() == null && !nearAnyPart(parts, top.xMm(), top.yMm(), marginMm)
                 && (lead == null || top.riseK() - lead.mapPeakK() > k * mapSigma * Math.sqrt(2) || !Double.isFinite(lead.mapPeakK())))
-            return new Verdict(VerdictStatus.INCONCLUSIVE, leadRef, leadRate, secondRef, sep,
+            // no marked part is named: the source is the unmarked spot, not the fastest of the marked parts
+            return new Verdict(VerdictStatus.INCONCLUSIVE, null, null, null, null,
                     String.format(Locale.ROOT, "the hottest spot, at %.1f, %.1f mm (rise %.2f K), is on no marked part:"
                             + " mark the part there and analyse again", top.xMm(), top.yMm(), top.riseK()));
         if (lead == null)

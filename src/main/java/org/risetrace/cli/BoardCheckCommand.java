@@ -20,10 +20,16 @@ public final class BoardCheckCommand implements Callable<Integer> {
 
     @Override
     public Integer call() {
-        Board b = BoardFile.read(file, Materials.load().names());
+        // a board straight from placement import has no outline yet: valid as far as it goes, with a warning
+        // saying what is missing (analyze and register still refuse it)
+        Board b = BoardFile.readWithoutOutline(file, Materials.load().names());
         spec.commandLine().getOut().printf(java.util.Locale.ROOT, "%s: %s, %.1f x %.1f mm, %d parts, %d ambient areas, reference %s%n",
                 file, b.name(), b.widthMm(), b.heightMm(), b.partsOrEmpty().size(), b.ambientOrEmpty().size(),
-                b.outline().frame());
+                b.outline() == null ? "none (no outline yet)" : b.outline().frame());
+        if (b.outline() == null)
+            spec.commandLine().getErr().println("risetrace: warning: " + file + " has no outline yet: add \"outline\" with the reference"
+                    + " frame's name and the four board corners in its pixels (risetrace frame-view writes the frame"
+                    + " with a pixel grid to read them off) before analyze or register");
         return Main.EXIT_OK;
     }
 }

@@ -39,8 +39,32 @@ public final class CompareCommand implements Callable<Integer> {
     @CommandLine.Mixin
     OutputOptions output = new OutputOptions();
 
+    /**
+     * Only the settings a two-frame comparison uses: baseline frames, rate window, last frames and threads belong to
+     * a series, so {@code compare --help} does not offer them.
+     */
+    static final class PairTunables {
+        @Option(names = "--k-sigma", paramLabel = "K", description = "significance threshold in noise sigmas (default: ${DEFAULT-VALUE})")
+        double kSigma = org.risetrace.analysis.AnalysisOptions.defaults().kSigma();
+
+        @Option(names = "--separation", paramLabel = "S", description = "combined standard errors the leader must lead by (default: ${DEFAULT-VALUE})")
+        double separation = org.risetrace.analysis.AnalysisOptions.defaults().separationSigma();
+
+        @Option(names = "--px-per-mm", paramLabel = "P", description = "board-space resolution (default: the reference frame's own)")
+        Double pxPerMm;
+
+        org.risetrace.analysis.AnalysisOptions options(CommandLine cl) {
+            try {
+                return org.risetrace.analysis.AnalysisOptions.defaults().withKSigma(kSigma)
+                        .withSeparationSigma(separation).withPxPerMm(pxPerMm);
+            } catch (IllegalArgumentException e) {
+                throw new CommandLine.ParameterException(cl, e.getMessage());
+            }
+        }
+    }
+
     @CommandLine.Mixin
-    AnalyzeCommand.Tunables tunables = new AnalyzeCommand.Tunables();
+    PairTunables tunables = new PairTunables();
 
     @Override
     public Integer call() {
@@ -63,7 +87,7 @@ public final class CompareCommand implements Callable<Integer> {
         return Main.EXIT_OK;
     }
 
-    static Analysis run(Path before, Path after, Path board, String profile, AnalyzeCommand.Tunables tunables,
+    static Analysis run(Path before, Path after, Path board, String profile, PairTunables tunables,
                         CommandLine cl, PrintWriter err) {
         for (Path p : List.of(before, after))
             if (!Files.isRegularFile(p)) throw new InputRejected(p, "frame file not found");
@@ -77,7 +101,6 @@ public final class CompareCommand implements Callable<Integer> {
         if (!Files.isRegularFile(boardFile))
             throw new InputRejected(boardFile, "board file not found", "pass --board");
         Board b = BoardFile.read(boardFile, Materials.load().names());
-        return SeriesAnalyzer.compare(fb, fa, b, boardFile, tunables.options(cl),
-                s.profile() == null ? null : s.profile().name());
+        return SeriesAnalyzer.compare(fb, fa, b, boardFile, tunables.options(cl), s.sidecar(), s.profile());
     }
 }

@@ -71,7 +71,7 @@ public final class DemoCommand implements Callable<Integer> {
             }
             Analysis a = s.size() == 2
                     ? SeriesAnalyzer.compare(s.read(0), s.read(1), board, dir.resolve("board.json"), options,
-                    s.profile() == null ? null : s.profile().name())
+                    s.sidecar(), s.profile())
                     : SeriesAnalyzer.analyze(s, board, dir.resolve("board.json"), dir.toString(), options,
                     SeriesAnalyzer.emissivity(s.profile()), SeriesAnalyzer.defaultThreads(),
                     AnalyzeCommand.progress(err));

@@ -12,6 +12,7 @@ import picocli.CommandLine.Command;
         description = "Finds the part heating fastest on a current-injected board from thermal camera frames.",
         subcommands = {
                 InspectCommand.class,
+                FrameViewCommand.class,
                 SimulateCommand.class,
                 BoardCommand.class,
                 RegisterCommand.class,

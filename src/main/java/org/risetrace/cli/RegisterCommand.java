@@ -38,7 +38,7 @@ public final class RegisterCommand implements Callable<Integer> {
             + "reference frame's own scale)")
     double pxPerMm;
 
-    @Option(names = "--method", paramLabel = "auto|features|search", description = "start estimates (default: auto)")
+    @Option(names = "--method", paramLabel = "auto|features|search", description = "how each frame's first estimate is found: auto (from the previous frame's mapping, then a coarse search over the board's position and scale, then image features), features (always from image features matched to the reference and a robust fit), search (coarse search only, for boards with few features) (default: auto)")
     String method = "auto";
 
     @picocli.CommandLine.Spec

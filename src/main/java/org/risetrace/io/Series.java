@@ -138,11 +138,17 @@ public final class Series implements Iterable<Frame> {
 
         Sidecar sidecar = sidecarFile == null ? Sidecar.empty() : Sidecars.load(sidecarFile);
         Map<String, Sidecar.FrameEntry> entriesByName = sidecar.frames() == null ? Map.of() : sidecar.frames();
-        for (String name : entriesByName.keySet()) {
-            boolean present = false;
-            for (Path f : frames) present |= f.getFileName().toString().equals(name);
-            if (!present) warnings.add(Sidecars.FILE_NAME + " lists frame '" + name + "', which is not in the series");
-        }
+        // one line for all absent entries: comparing two frames of a 90-frame series must not print 88 lines
+        List<String> absent = new ArrayList<>();
+        java.util.Set<String> present = new java.util.HashSet<>();
+        for (Path f : frames) present.add(f.getFileName().toString());
+        for (String name : entriesByName.keySet()) if (!present.contains(name)) absent.add(name);
+        absent.sort(NaturalOrder.INSTANCE);
+        if (absent.size() == 1)
+            warnings.add(Sidecars.FILE_NAME + " lists frame '" + absent.get(0) + "', which is not in the series");
+        else if (absent.size() > 1)
+            warnings.add(Sidecars.FILE_NAME + " lists " + absent.size() + " frames that are not among the frames read ('"
+                    + absent.get(0) + "' to '" + absent.get(absent.size() - 1) + "'); their entries are not used");
 
         Profile profile;
         int[] reference = null;
@@ -194,6 +200,16 @@ public final class Series implements Iterable<Frame> {
                         + " other frames have one", "give every frame a t_s under \"frames\", or none");
             for (int i = 0; i < n; i++) t[i] = entries.get(frames.get(i).getFileName().toString()).tS();
             checkRising(frames, t, sidecarFile, "t_s");
+            // the sidecar's times rule, but the absolute capture time the files carry is still worth reporting
+            // (README, "Frame order and times"): kept only when every frame has one
+            for (int i = 0; i < n; i++) {
+                CaptureTimes.CaptureTime c = CaptureTimes.read(frames.get(i));
+                if (c == null) {
+                    java.util.Arrays.fill(instants, null);
+                    break;
+                }
+                instants[i] = c.instant();
+            }
             return "series.json t_s";
         }
         CaptureTimes.CaptureTime[] ct = new CaptureTimes.CaptureTime[n];

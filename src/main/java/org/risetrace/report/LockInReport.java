@@ -154,7 +154,8 @@ public final class LockInReport {
         h.append("<section><h2>Lock-in maps</h2>\n");
         BoardMap amp = li.amplitudeMap();
         if (amp != null) {
-            double[] range = ReportHtml.percentiles(amp.values(), 0.0, 0.999);
+            // the bar reaches the strongest point, as the rise map's does, so it agrees with the spot table
+            double[] range = ReportHtml.percentiles(amp.values(), 0.0, 1.0);
             figure(h, Plots.mapPng(grid(amp, boardW, boardH), new Plots.Shading(ColourMaps.EMBER, 0,
                             Math.max(range[1], 1e-4), false, "amplitude at the excitation frequency (K)"), parts,
                     r.hotspots()), "Lock-in amplitude map", "Amplitude of each board point's temperature at the "

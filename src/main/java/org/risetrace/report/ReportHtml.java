@@ -70,8 +70,11 @@ public final class ReportHtml {
     /** True for a before/after pair: no rates, at most two frames. */
     static boolean isComparison(Analysis a) {
         AnalysisResult r = a.result();
+        // the analysis says which it was; a series whose frames mostly failed to register is still a series
+        Object mode = r.parameters() == null ? null : r.parameters().get("mode");
+        if (mode != null) return "compare".equals(mode);
         boolean anyRate = r.parts() != null && r.parts().stream().anyMatch(p -> finite(p.rateKPerS()));
-        int frames = r.frames() == null ? 0 : (int) r.frames().stream().filter(FrameRecord::used).count();
+        int frames = r.frames() == null ? 0 : r.frames().size();
         return !anyRate && frames <= 2;
     }
 
@@ -172,7 +175,9 @@ public final class ReportHtml {
                     .append(frames.size() - failedFrames).append(frames.size() - failedFrames == 1 ? " frame." : " frames.")
                     .append("</p>\n");
         Hotspot unmarked = unmarkedHottest(r);
-        if (unmarked != null)
+        // said once: when the verdict itself is about the unmarked spot, its reason already asks for the part
+        boolean verdictSaysIt = v != null && v.reason() != null && v.reason().contains("no marked part");
+        if (unmarked != null && !verdictSaysIt)
             h.append("<p class=\"unmarked\">").append(esc(unmarkedSentence(unmarked))).append("</p>\n");
         h.append("</section>\n");
 
@@ -191,11 +196,14 @@ public final class ReportHtml {
             figure(h, Plots.mapPng(g, new Plots.Shading(ColourMaps.EMBER, range[0], range[1], false,
                             "apparent temperature (\u00b0C)"), parts, null),
                     "Last frame", "The last usable frame, rectified onto the board, in apparent temperature ("
-                            + ColourMaps.EMBER.word() + " colour map: darker is cooler). Hatched: outside the frame.");
+                            + ColourMaps.EMBER.word() + " colour map: darker is cooler). Hatched: outside the frame."
+                            + clipNote(c, range[0], range[1], "\u00b0C"));
         }
         BoardMap rise = a.riseMap();
         if (rise != null && hasFinite(rise.values())) {
-            double[] range = percentiles(rise.values(), 0.0, 0.999);
+            // the bar reaches the highest rise, so the hottest spot shows in the top colour and the bar's top
+            // agrees with the hot spot table (both read this smoothed map)
+            double[] range = percentiles(rise.values(), 0.0, 1.0);
             double upper = Math.max(range[1], 0.05);
             Plots.Grid g = grid(rise.width(), rise.height(), rise.pxPerMm(), rise.values(), boardW, boardH);
             figure(h, Plots.mapPng(g, new Plots.Shading(ColourMaps.EMBER, Math.min(0, Math.max(range[0], -upper)),
@@ -203,7 +211,8 @@ public final class ReportHtml {
                     "Rise map", "Rise above ambient at the end of the series (" + ColourMaps.EMBER.word()
                             + " colour map). Rings mark the hot spots, numbered as in the hot spot table"
                             + (hotspots.stream().anyMatch(s -> s.ref() == null)
-                            ? "; cyan rings are on no marked part." : "."));
+                            ? "; cyan rings are on no marked part." : ".")
+                            + clipNote(rise.values(), Math.min(0, Math.max(range[0], -upper)), upper, "K"));
         }
         if (rise != null && !hasFinite(rise.values()))
             h.append("<p class=\"blank\">Rise map: no point of the board has a rise value.</p>\n");
@@ -550,6 +559,25 @@ public final class ReportHtml {
         if (v == null) return false;
         for (float f : v) if (Float.isFinite(f)) return true;
         return false;
+    }
+
+    /**
+     * The caption's words when a colour bar does not span every value: how many points lie beyond its ends and that
+     * they show the end colours; empty when none do.
+     */
+    static String clipNote(float[] values, double lo, double hi, String unit) {
+        int n = 0, below = 0, above = 0;
+        for (float v : values) {
+            if (!Float.isFinite(v)) continue;
+            n++;
+            if (v < lo) below++;
+            else if (v > hi) above++;
+        }
+        if (n == 0 || below + above == 0) return "";
+        return String.format(java.util.Locale.ROOT, " The colour bar is clipped to %s to %s %s: %s of the points lie"
+                        + " beyond it and show its end colours (%d below, %d above).", sig(lo, 3), sig(hi, 3), unit,
+                100.0 * (below + above) / n < 0.1 ? "under 0.1 %" : fixed(100.0 * (below + above) / n, 1) + " %",
+                below, above);
     }
 
     /** Lower and upper percentiles (fractions) of the finite values; [0, 1] when there are none. */

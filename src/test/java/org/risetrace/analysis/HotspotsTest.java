@@ -66,4 +66,23 @@ class HotspotsTest {
         float[] v = {5, 3, 4, 6};
         assertEquals(2.0, Hotspots.valleyDepth(v, 4, new int[]{0, 0}, new int[]{3, 0}), 1e-9);
     }
+
+    @Test
+    void hotSpotIsLocatedToATenthOfAPixelBetweenPixelCentres() {
+        // issue 17: bumps only on whole pixels with a one-pixel tolerance could not catch a sub-pixel error. A 2 K
+        // Gaussian bump (sigma 3 px, 3.16 px after the 1 px blur) centred between pixel centres, on 0.02 K noise;
+        // the three-point parabola through a Gaussian's samples is biased by under 0.005 px at this width (worked
+        // out: vertex of the parabola through exp(-(x - d)^2 / 20) at x = -1, 0, 1 is 0.2453 for d = 0.25), the
+        // noise moves it by a few hundredths: within 0.1 px, a tenth of the old tolerance
+        double[][] offsets = {{0.25, 0.0}, {0.5, 0.3}, {0.75, 0.6}, {0.1, 0.9}, {0.4, 0.45}};
+        long seed = 11;
+        for (double[] o : offsets) {
+            double cx = 50 + o[0], cy = 35 + o[1];
+            List<Hotspot> spots = find(map(new double[][]{{2.0, cx, cy, 3}}, seed++));
+            assertEquals(1, spots.size(), spots.toString());
+            // map pixel i has its centre at (i + 0.5) / pxPerMm mm (BoardMap convention)
+            assertEquals((cx + 0.5) / PX_PER_MM, spots.get(0).xMm(), 0.1 / PX_PER_MM, "x for " + cx);
+            assertEquals((cy + 0.5) / PX_PER_MM, spots.get(0).yMm(), 0.1 / PX_PER_MM, "y for " + cy);
+        }
+    }
 }

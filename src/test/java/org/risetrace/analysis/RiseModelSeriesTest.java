@@ -10,7 +10,6 @@ import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertNotNull;
 import static org.junit.jupiter.api.Assertions.assertNull;
 import static org.junit.jupiter.api.Assertions.assertTrue;
-import static org.junit.jupiter.api.Assumptions.assumeTrue;
 
 /**
  * The rise model on whole analyses: the leading part's fit RMS against its measured noise, on the bundled simulator
@@ -30,7 +29,7 @@ class RiseModelSeriesTest {
     @Test
     void bundledPhaseShortLeaderIsFittedToItsNoise() {
         Path dir = Path.of("sample-frames", "phase-short");
-        assumeTrue(Files.isDirectory(dir), "bundled series absent");
+        assertTrue(Files.isDirectory(dir), "bundled series missing");
         Analysis a = SimulatedSeriesTest.analyze(dir);
         PartResult q3 = part(a, "Q3");
         assertNotNull(q3.fit());

@@ -42,6 +42,15 @@ class SeriesAnalysisTest {
     }
 
     static Analysis run(Board board, List<Source> sources, double noiseK, long seed, AnalysisOptions o) {
+        return run(board, sources, noiseK, seed, o, 0, false);
+    }
+
+    /**
+     * @param driftKPerS    room temperature drift: every board pixel warms by driftKPerS * t
+     * @param sampleAmbient pass the analysis the ambient reading (25 C + drift) as the background band would give it
+     */
+    static Analysis run(Board board, List<Source> sources, double noiseK, long seed, AnalysisOptions o,
+                        double driftKPerS, boolean sampleAmbient) {
         int frames = 40;
         double dt = 1.0, start = 5.0;
         double[] times = new double[frames];
@@ -58,7 +67,7 @@ class SeriesAnalysisTest {
             boolean[] valid = new boolean[W * H];
             for (int j = 0; j < H; j++)
                 for (int i = 0; i < W; i++) {
-                    double x = (i + 0.5) / PX_PER_MM, y = (j + 0.5) / PX_PER_MM, v = 25;
+                    double x = (i + 0.5) / PX_PER_MM, y = (j + 0.5) / PX_PER_MM, v = 25 + driftKPerS * times[f];
                     for (Source s : sources) v += s.at(x, y, times[f] - start);
                     c[j * W + i] = (float) (v + noiseK * rnd.nextGaussian());
                     valid[j * W + i] = true;
@@ -68,7 +77,7 @@ class SeriesAnalysisTest {
             FrameRegistration reg = new FrameRegistration("f" + f + ".png", times[f], RegistrationStatus.OK, null, h,
                     new double[][]{{0, 0}, {160, 0}, {160, 120}, {0, 120}}, 50, 0.1, 0.95);
             sa.add(new FrameSample(f, "f" + f + ".png", times[f], "00", reg, new BoardRaster(W, H, PX_PER_MM, c, valid),
-                    stats, Double.NaN));
+                    stats, sampleAmbient ? 25 + driftKPerS * times[f] : Double.NaN));
         }
         return sa.finish();
     }
@@ -144,5 +153,30 @@ class SeriesAnalysisTest {
         // sub-pixel centroid: within a quarter millimetre (one board pixel) of the true centre
         assertEquals(32.0, top.xMm(), 0.25);
         assertEquals(24.0, top.yMm(), 0.25);
+    }
+
+    @Test
+    void ambientDriftCancelsInTheRise() {
+        // issue 17: the room warming (or the camera's offset drifting: to the analysis the same uniform shift) by
+        // 0.05 K/s (2 K over the 40 s series, far faster than a real room, so a
+        // failure would show) moves every pixel and the background band alike; the rise is part minus baseline
+        // minus (ambient minus its baseline), so the drift cancels: the same seed gives the same noise, and the
+        // footprint's p95 shifts exactly with a uniform offset (a percentile is shift-equivariant), so rates and
+        // rises agree with the drift-free run to float rounding (1e-4 K on 25 C single-precision pixels)
+        List<Source> q1 = List.of(new Source(10, 10, 2, 2.0, 10), new Source(25, 10, 2, 0.2, 10));
+        Analysis still = run(board(), q1, 0.05, 6, AnalysisOptions.defaults(), 0, true);
+        Analysis drifting = run(board(), q1, 0.05, 6, AnalysisOptions.defaults(), 0.05, true);
+        assertEquals("Q1", drifting.result().verdict().ref(), drifting.result().verdict().reason());
+        for (int p = 0; p < still.result().parts().size(); p++) {
+            PartResult a = still.result().parts().get(p), b = drifting.result().parts().get(p);
+            assertEquals(a.ref(), b.ref());
+            assertEquals(a.rateKPerS(), b.rateKPerS(), 1e-4, a.ref());
+            assertEquals(a.riseK(), b.riseK(), 1e-4, a.ref());
+        }
+        // the check can fail: without the ambient reading the same drift reads as heating of every part
+        Analysis blind = run(board(), List.of(), 0.05, 7, AnalysisOptions.defaults(), 0.05, false);
+        Analysis seen = run(board(), List.of(), 0.05, 7, AnalysisOptions.defaults(), 0.05, true);
+        assertEquals(VerdictStatus.NO_HEATING, seen.result().verdict().status(), seen.result().verdict().reason());
+        assertTrue(blind.result().parts().get(0).riseK() > 1.5, "uncorrected drift: " + blind.result().parts().get(0).riseK());
     }
 }

@@ -62,4 +62,77 @@ class VerdictsTest {
         assertTrue(Verdicts.nearAnyPart(List.of(r), 12.5, 10, 1.6));
         assertTrue(!Verdicts.nearAnyPart(List.of(r), 12.5, 10, 1.4));
     }
+
+    // --- issue 17: each rule of the verdict with its own test; the expected numbers are worked out beside them
+
+    @Test
+    void tooLittleHeatingWhenTheLeaderIsUnderKStandardErrors() {
+        // leader 0.02 +/- 0.01 K/s is 2 standard errors from zero, under k = 3; it has an onset, so something rose
+        Verdicts.Candidate lead = new Verdicts.Candidate("Q1", 0.02, 0.01, true, 0.3);
+        Verdicts.Candidate second = new Verdicts.Candidate("U2", 0.0, 0.01, false, 0.1);
+        Verdict v = Verdicts.decide(List.of(lead, second), List.of(), 0.1, 0, 20, O);
+        assertEquals(VerdictStatus.INCONCLUSIVE, v.status(), v.reason());
+        assertTrue(v.reason().startsWith("too little heating: the fastest part, Q1"), v.reason());
+        assertEquals("Q1", v.ref());
+        // the same leader at 0.04 +/- 0.01 K/s is 4 standard errors: it heats, and leads U2 by 0.04 / hypot(0.01,
+        // 0.01) = 2.83 sigma, under the separation of 3: now "two parts level", no longer "too little heating"
+        Verdicts.Candidate stronger = new Verdicts.Candidate("Q1", 0.04, 0.01, true, 0.3);
+        Verdict w = Verdicts.decide(List.of(stronger, second), List.of(), 0.1, 0, 20, O);
+        assertTrue(w.reason().startsWith("two parts level"), w.reason());
+        assertEquals(2.83, w.separationSigma(), 0.01); // hand arithmetic above
+    }
+
+    @Test
+    void noPartsMarkedIsSaidWhateverTheMapShows() {
+        Verdict empty = Verdicts.decide(List.of(), List.of(), 0.1, 0, 20, O);
+        assertEquals(VerdictStatus.INCONCLUSIVE, empty.status());
+        assertEquals("the board file marks no parts", empty.reason());
+        Hotspot spot = new Hotspot(17.0, 10.0, 8.0, null);
+        Verdict withSpot = Verdicts.decide(List.of(), List.of(spot), 0.1, 0, 20, O);
+        assertEquals(VerdictStatus.INCONCLUSIVE, withSpot.status());
+        assertTrue(withSpot.reason().startsWith("the board file marks no parts; the hottest spot is at 17.0, 10.0 mm"),
+                withSpot.reason());
+        assertEquals(null, withSpot.ref());
+    }
+
+    @Test
+    void hottestSpotOnNoMarkedPartNamesNoLeader() {
+        // the fastest marked part must not be presented as the answer when the source is the unmarked spot
+        Part q1 = new Part("Q1", "ic", null, 10, 10, 4, 4, null);
+        Verdicts.Candidate lead = new Verdicts.Candidate("Q1", 1.0, 0.05, true, 2.0);
+        Verdicts.Candidate second = new Verdicts.Candidate("U2", 0.1, 0.05, true, 0.5);
+        Hotspot away = new Hotspot(30.0, 10.0, 8.0, null);
+        Verdict v = Verdicts.decide(List.of(lead, second), List.of(away), 0.1, 0, 20, O, "K/s", List.of(q1), 1.0);
+        assertEquals(VerdictStatus.INCONCLUSIVE, v.status());
+        assertEquals(null, v.ref(), v.reason());
+        assertEquals(null, v.runnerUpRef());
+    }
+
+    @Test
+    void noHeatingDoesNotSpeakOfMeasuredNoiseWhenNoneWasMeasured() {
+        // one usable frame: no part has a rate or a noise, the map has no sigma
+        Verdicts.Candidate a = new Verdicts.Candidate("Q1", null, null, false, Double.NaN);
+        Verdicts.Candidate b = new Verdicts.Candidate("U2", null, null, false, Double.NaN);
+        Verdict v = Verdicts.decide(List.of(a, b), List.of(), Double.NaN, 0, 1, O);
+        assertEquals(VerdictStatus.NO_HEATING, v.status());
+        assertTrue(!v.reason().contains("measured noise") && v.reason().contains("no part's noise could be measured"), v.reason());
+        // with a measured noise the usual words stay
+        Verdicts.Candidate c = new Verdicts.Candidate("Q1", 0.0, 0.01, false, 0.0);
+        Verdict w = Verdicts.decide(List.of(c), List.of(), 0.1, 0, 20, O);
+        assertEquals("nothing rose above 3.0 times the measured noise", w.reason());
+    }
+
+    @Test
+    void weakRegistrationIsNotedButDoesNotDecideByNumber() {
+        // the rule since the mapping error became part of every rate's error: 10 weak frames of 20 (over the
+        // weak_fraction_limit of 0.25) leave a clear lead identified, with a note; 2 of 20 add no note
+        Verdicts.Candidate lead = new Verdicts.Candidate("Q1", 1.0, 0.1, true, 5.0);
+        Verdicts.Candidate second = new Verdicts.Candidate("U2", 0.3, 0.05, true, 2.0);
+        Verdict many = Verdicts.decide(List.of(lead, second), List.of(), 0.1, 10, 20, O);
+        assertEquals(VerdictStatus.IDENTIFIED, many.status(), many.reason());
+        assertTrue(many.reason().contains("(registration weak in 10 of 20 frames"), many.reason());
+        Verdict few = Verdicts.decide(List.of(lead, second), List.of(), 0.1, 2, 20, O);
+        assertEquals(VerdictStatus.IDENTIFIED, few.status());
+        assertTrue(!few.reason().contains("registration weak"), few.reason());
+    }
 }

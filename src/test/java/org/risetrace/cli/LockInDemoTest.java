@@ -39,8 +39,11 @@ class LockInDemoTest {
         JsonNode lockIn = doc.get("lock_in");
         assertEquals("identified", doc.get("verdict").get("status").asText());
         assertEquals(source, doc.get("verdict").get("ref").asText());
-        assertEquals("inconclusive", lockIn.get("steady_verdict").get("status").asText(),
-                "the steady analysis cannot name a 2 mW source");
+        // not named by the steady analysis: inconclusive, or no-heating since an onset needs the part still risen
+        // above k sigma at the end (a part switched off half the time need not be)
+        String steady = lockIn.get("steady_verdict").get("status").asText();
+        assertTrue(steady.equals("inconclusive") || steady.equals("no-heating"),
+                "the steady analysis cannot name a 2 mW source: " + steady);
         assertEquals(7, lockIn.get("periods").asInt());
         assertEquals(28, lockIn.get("periods_to_halve_sensitivity").asInt());
         JsonNode lead = lockIn.get("parts").get(0);
@@ -65,7 +68,8 @@ class LockInDemoTest {
         InspectCommandTest.Result r = InspectCommandTest.run("analyze", SERIES.toString(), "--mode", "steady",
                 "--out", out.toString());
         assertEquals(Main.EXIT_OK, r.code(), r.err());
-        assertTrue(r.out().startsWith("leak-pulse: inconclusive"), r.out());
+        assertTrue(r.out().startsWith("leak-pulse: inconclusive") || r.out().startsWith("leak-pulse: no-heating"),
+                r.out());
         assertTrue(r.out().contains("mode: steady"), r.out());
     }
 

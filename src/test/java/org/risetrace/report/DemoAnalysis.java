@@ -151,8 +151,9 @@ final class DemoAnalysis {
 
         Verdict verdict;
         if (unmarkedHottest) {
-            verdict = new Verdict(VerdictStatus.INCONCLUSIVE, "Q3", comparison ? null : 0.2, "Q5",
-                    comparison ? null : 7.9, "the hottest spot is on no marked part");
+            // as Verdicts gives it: no marked part is named when the source is the unmarked spot
+            verdict = new Verdict(VerdictStatus.INCONCLUSIVE, null, null, null, null,
+                    "the hottest spot is on no marked part");
         } else if (comparison) {
             verdict = new Verdict(VerdictStatus.IDENTIFIED, "Q3", null, "Q5", 41.0,
                     "Q3 rose most, far above the noise");

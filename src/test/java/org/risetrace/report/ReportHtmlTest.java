@@ -215,7 +215,9 @@ class ReportHtmlTest {
     void unmarkedHottestSpotAsksForTheMissingPart() {
         String page = html(DemoAnalysis.build(true, false));
         assertTrue(page.contains("Inconclusive: the hottest spot is on no marked part"));
-        assertTrue(page.contains("The hottest spot, at 56.0, 30.0 mm, is on no marked part: mark the part there."));
+        // said once (issue 17): the verdict's reason already asks for the part, so the extra sentence is left out
+        assertFalse(page.contains("The hottest spot, at 56.0, 30.0 mm, is on no marked part: mark the part there."));
+        assertFalse(page.contains("class=\"leader\""), "no marked part is highlighted as the answer");
         assertTrue(page.contains("class=\"unmarked-row\""));
     }
 
@@ -266,7 +268,15 @@ class ReportHtmlTest {
         assertTrue(page.contains("No part heats above the noise: nothing rose"));
         assertTrue(page.contains("No notes were recorded"));
         assertEquals("t_s\r\n", Files.readString(dir.resolve("out").resolve(Reports.CSV_FILE)));
-        assertTrue(Files.size(dir.resolve("out").resolve(Reports.JSON_FILE)) > 100);
+        // the JSON is the same sparse result, read back field by field (not merely "longer than 100 bytes")
+        com.fasterxml.jackson.databind.JsonNode json = new com.fasterxml.jackson.databind.ObjectMapper()
+                .readTree(dir.resolve("out").resolve(Reports.JSON_FILE).toFile());
+        assertEquals(AnalysisResult.SCHEMA, json.get("schema").asText());
+        assertEquals("no-heating", json.get("verdict").get("status").asText());
+        assertEquals("nothing rose", json.get("verdict").get("reason").asText());
+        assertTrue(json.get("verdict").get("ref").isNull() && json.get("board").isNull());
+        assertEquals(0, json.get("parts").size());
+        assertEquals(0, json.get("frames").size());
     }
 
     @Test
@@ -291,5 +301,61 @@ class ReportHtmlTest {
         assertEquals(4, corners);
         Board b = DemoAnalysis.build().board();
         assertEquals(10, b.partsOrEmpty().size());
+    }
+
+    @Test
+    void unmarkedSpotSentenceStaysWhenTheVerdictIsAboutSomethingElse() {
+        // an identified leader while the hottest spot (within the optics' margin of a part) carries no part: the
+        // sentence asking for the part is then the only place it is said
+        Analysis a = DemoAnalysis.build(true, false);
+        AnalysisResult r = a.result();
+        Verdict identified = new Verdict(VerdictStatus.IDENTIFIED, "Q3", 0.2, "Q5", 7.9, "Q3 heats fastest");
+        AnalysisResult other = new AnalysisResult(r.schema(), r.tool(), r.version(), r.createdUtc(), r.series(),
+                r.board(), r.profile(), r.parameters(), r.injection(), identified, r.parts(), r.hotspots(), r.frames());
+        String page = ReportHtml.toHtml(new Analysis(other, a.board(), a.curves(), a.riseMap(), a.onsetMap(),
+                a.lastFrame()), null);
+        assertTrue(page.contains("The hottest spot, at 56.0, 30.0 mm, is on no marked part: mark the part there."));
+        assertTrue(page.contains("class=\"leader\""));
+    }
+
+    @Test
+    void seriesWithOneUsableFrameIsNotCalledAComparison() {
+        // issue 17: a 60-frame series with all but one frame failed read "before/after comparison"
+        Analysis a = DemoAnalysis.build();
+        AnalysisResult r = a.result();
+        List<FrameRecord> frames = new ArrayList<>();
+        for (int i = 0; i < r.frames().size(); i++) {
+            FrameRecord f = r.frames().get(i);
+            frames.add(i == 0 ? f : new FrameRecord(f.file(), f.tS(), f.sha256(), false,
+                    new FrameRecord.Registration("failed", null, "image similarity too low", null)));
+        }
+        List<PartResult> noRates = new ArrayList<>();
+        for (PartResult p : r.parts())
+            noRates.add(new PartResult(p.ref(), p.rank(), null, null, null, null, null, null, null, null, null, null,
+                    p.validFraction(), p.emissivity(), p.warnings()));
+        AnalysisResult worse = new AnalysisResult(r.schema(), r.tool(), r.version(), r.createdUtc(), r.series(),
+                r.board(), r.profile(), r.parameters(), r.injection(), r.verdict(), noRates, r.hotspots(), frames);
+        String page = ReportHtml.toHtml(new Analysis(worse, a.board(), a.curves(), a.riseMap(), a.onsetMap(),
+                a.lastFrame()), null);
+        assertFalse(page.contains("before/after comparison"), "status line of a series");
+        // and the mode the analysis records decides when present
+        java.util.Map<String, Object> params = new java.util.LinkedHashMap<>(r.parameters());
+        params.put("mode", "compare");
+        AnalysisResult pair = new AnalysisResult(r.schema(), r.tool(), r.version(), r.createdUtc(), r.series(),
+                r.board(), r.profile(), params, r.injection(), r.verdict(), r.parts(), r.hotspots(), r.frames());
+        assertTrue(ReportHtml.isComparison(new Analysis(pair, a.board(), a.curves(), a.riseMap(), a.onsetMap(),
+                a.lastFrame())));
+    }
+
+    @Test
+    void clippedColourBarIsSaidInTheCaption() {
+        // 1000 values 0..0.999 and one outlier at 50: a bar to 1.0 leaves the outlier beyond it
+        float[] v = new float[1001];
+        for (int i = 0; i < 1000; i++) v[i] = i / 1000f;
+        v[1000] = 50f;
+        String note = ReportHtml.clipNote(v, 0.0, 1.0, "K");
+        assertEquals(" The colour bar is clipped to 0 to 1 K: under 0.1 % of the points lie beyond it and show its"
+                + " end colours (0 below, 1 above).", note);
+        assertEquals("", ReportHtml.clipNote(v, 0.0, 50.0, "K"), "nothing beyond the bar: nothing said");
     }
 }

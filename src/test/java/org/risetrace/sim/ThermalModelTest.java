@@ -91,11 +91,14 @@ class ThermalModelTest {
         double[] p = new double[m.nodes()];
         p[c * n + c] = power;
         m.steady(p, ambient);
-        double worst = 0;
+        double worst = 0, worstFar = 0;
+        double[] near = new double[3];
         for (int r = 2; r <= 30; r++) {
             double expected = power / (2 * Math.PI * kt) * besselK0(r * dx / lengthM);
             double axis = m.temperature[c * n + c + r] - ambient;
             worst = Math.max(worst, Math.abs(axis / expected - 1));
+            if (r >= 5) worstFar = Math.max(worstFar, Math.abs(axis / expected - 1));
+            else near[r - 2] = Math.abs(axis / expected - 1);
             assertEquals(expected, axis, 0.03 * expected, "axis r = " + r + " cells");
             if (r <= 21) {
                 int d = (int) Math.round(r / Math.sqrt(2));
@@ -105,7 +108,12 @@ class ThermalModelTest {
                 if (rd >= 2) assertEquals(expectedD, diag, 0.03 * expectedD, "diagonal r = " + rd + " cells");
             }
         }
-        assertTrue(worst > 0, "compared");
+        // the five-point Laplacian's truncation error is second order in dx / r (common practice), so the error is
+        // largest beside the source and falls away from it: at 5 cells and beyond within 0.5 % (measured 0.29 % at 5
+        // cells, under 0.24 % from there to 30), and falling from 2 to 4 cells (measured 1.4 % -> 0.8 % -> 0.4 %)
+        assertTrue(worstFar < 0.005, "worst relative error from 5 cells: " + worstFar);
+        assertTrue(near[0] > near[1] && near[1] > near[2], java.util.Arrays.toString(near));
+        assertTrue(worst < 0.03, "worst " + worst);
     }
 
     /** Energy balance over a run with a square-wave source, idle power and ambient drift: injected = stored + lost within 0.5%. */

@@ -262,8 +262,20 @@ public final class BatchRunner {
         String unused = unusedFrames(frameRecords);
         if (unused != null) warnings.add(unused);
         String report = ".".equals(task.relativePath()) ? Reports.HTML_FILE : task.relativePath() + "/" + Reports.HTML_FILE;
+        if (noFrameUsed(frameRecords))
+            // registration failed on every frame: the analysis ends "inconclusive", but for a batch this is a
+            // series that could not be analysed, and it belongs among the failures (its report says why per frame)
+            return new SeriesSummary(task.relativePath(), s.size(), known.durationS, mode, SeriesSummary.FAILED, null,
+                    null, null, warnings, relative(root, task.folder() + ": " + verdict.reason()), report);
         return new SeriesSummary(task.relativePath(), s.size(), known.durationS, mode, verdict.status().word(),
                 verdict.ref(), verdict.rateKPerS(), verdict.separationSigma(), warnings, null, report);
+    }
+
+    /** True when not one frame was mapped onto the board. */
+    static boolean noFrameUsed(List<FrameRecord> frames) {
+        if (frames == null || frames.isEmpty()) return true;
+        for (FrameRecord f : frames) if (f.used()) return false;
+        return true;
     }
 
     /** "k of n frames not used (first: name: reason)", or null when every frame was used. */

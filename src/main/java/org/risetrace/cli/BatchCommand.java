@@ -111,7 +111,7 @@ public final class BatchCommand implements Callable<Integer> {
             startNanos = System.nanoTime();
             if (bar)
                 progressBar = new ProgressBarBuilder().setTaskName("series").setInitialMax(total)
-                        .setStyle(ProgressBarStyle.ASCII).setUpdateIntervalMillis(250).showSpeed()
+                        .setStyle(ProgressBarStyle.ASCII).setUpdateIntervalMillis(250)
                         .setEtaFunction(state -> java.util.Optional.ofNullable(eta(state.getCurrent(), state.getMax())))
                         .setConsumer(new ConsoleProgressBarConsumer(System.err)).build();
         }

@@ -275,6 +275,21 @@ class BatchRunnerTest {
         assertEquals(Main.EXIT_USAGE, runMain("batch", root.toString(), "--jobs", "0").code());
     }
 
+    @Test
+    void aSeriesWithNoFrameMappedCountsAsFailedAndOneLeftOutFrameAsAWarning() {
+        org.risetrace.analysis.FrameRecord.Registration failed =
+                new org.risetrace.analysis.FrameRecord.Registration("failed", null, "no match", null);
+        org.risetrace.analysis.FrameRecord.Registration ok =
+                new org.risetrace.analysis.FrameRecord.Registration("ok", 0.1, null, null);
+        var a = new org.risetrace.analysis.FrameRecord("f1.png", 0, "x", false, failed);
+        var b = new org.risetrace.analysis.FrameRecord("f2.png", 1, "y", false, failed);
+        var c = new org.risetrace.analysis.FrameRecord("f3.png", 2, "z", true, ok);
+        assertTrue(BatchRunner.noFrameUsed(List.of(a, b)));
+        assertFalse(BatchRunner.noFrameUsed(List.of(a, b, c)));
+        assertEquals("2 of 3 frames not used (first: f1.png: no match)", BatchRunner.unusedFrames(List.of(a, b, c)));
+        assertNull(BatchRunner.unusedFrames(List.of(c)));
+    }
+
     record Result(int code, String out, String err) {
     }
 

@@ -122,6 +122,9 @@ public final class BatchRunner {
 
     /** Runs the batch over root into out. */
     public static Outcome run(Path root, Path out, Options options, Listener listener) {
+        if (Files.isDirectory(root) && root.toAbsolutePath().normalize().equals(out.toAbsolutePath().normalize()))
+            throw new InputRejected(out, "the output folder is the root itself (its parts.csv would be read as frames next time)",
+                    "name another --out folder");
         List<SeriesTask> all = SeriesDiscovery.find(root, out);
         if (all.isEmpty())
             throw new InputRejected(root, "no series found", "a series is a folder of frames with a board.json in it or in a parent folder");
@@ -241,23 +244,26 @@ public final class BatchRunner {
         Verdict verdict;
         List<FrameRecord> frameRecords;
         String mode;
-        if (LockInAnalyzer.periodic(s)) {
-            LockIn li = LockInAnalyzer.analyze(s, b, task.boardFile(), label, options.analysis(),
-                    SeriesAnalyzer.emissivity(s.profile()), options.threads(), Analyzer.Progress.NONE);
-            LockInReport.writeAll(li, stage, notes);
-            verdict = li.result().verdict();
-            frameRecords = li.steady().result().frames();
-            mode = "lock-in";
-        } else {
-            Analysis a = SeriesAnalyzer.analyze(s, b, task.boardFile(), label, options.analysis(),
-                    SeriesAnalyzer.emissivity(s.profile()), options.threads(), Analyzer.Progress.NONE);
-            Reports.writeAll(a, stage, notes);
-            verdict = a.result().verdict();
-            frameRecords = a.result().frames();
-            mode = "steady";
+        try {
+            if (LockInAnalyzer.periodic(s)) {
+                LockIn li = LockInAnalyzer.analyze(s, b, task.boardFile(), label, options.analysis(),
+                        SeriesAnalyzer.emissivity(s.profile()), options.threads(), Analyzer.Progress.NONE);
+                LockInReport.writeAll(li, stage, notes);
+                verdict = li.result().verdict();
+                frameRecords = li.steady().result().frames();
+                mode = "lock-in";
+            } else {
+                Analysis a = SeriesAnalyzer.analyze(s, b, task.boardFile(), label, options.analysis(),
+                        SeriesAnalyzer.emissivity(s.profile()), options.threads(), Analyzer.Progress.NONE);
+                Reports.writeAll(a, stage, notes);
+                verdict = a.result().verdict();
+                frameRecords = a.result().frames();
+                mode = "steady";
+            }
+            for (String name : SERIES_OUTPUTS) AtomicFiles.move(stage.resolve(name), dir.resolve(name));
+        } finally {
+            deleteTree(stage);
         }
-        for (String name : SERIES_OUTPUTS) AtomicFiles.move(stage.resolve(name), dir.resolve(name));
-        deleteTree(stage);
         List<String> warnings = new ArrayList<>(s.warnings());
         String unused = unusedFrames(frameRecords);
         if (unused != null) warnings.add(unused);

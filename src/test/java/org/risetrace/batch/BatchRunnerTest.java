@@ -290,6 +290,13 @@ class BatchRunnerTest {
         assertNull(BatchRunner.unusedFrames(List.of(c)));
     }
 
+    @Test
+    void theRootAsOutputFolderIsRefusedInOneLine() {
+        Result r = runMain("batch", root.toString(), "--out", root.toString());
+        assertEquals(Main.EXIT_INPUT_REJECTED, r.code());
+        assertTrue(r.err().strip().lines().count() == 1 && r.err().contains("the output folder is the root"), r.err());
+    }
+
     record Result(int code, String out, String err) {
     }
 

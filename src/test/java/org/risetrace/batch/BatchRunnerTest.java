@@ -65,6 +65,9 @@ class BatchRunnerTest {
         sim(root.resolve("boardB/run1"), 2.0, 12, 11L);
         sim(root.resolve("boardB/run2-late-frame-cut"), 2.0, 12, 11L);
         truncate(root.resolve("boardB/run2-late-frame-cut/f0009.png"));
+        // a square-wave injection (period_s in series.json): analysed by the lock-in path, as analyze does
+        Simulator.run(Scenarios.small(2.0).withFrames(16, 0.5, 2.0).withSeed(5L).withSquareWave(2.0, 0.5),
+                root.resolve("boardC/pulsed"));
         // broken: the reference frame cut short; no board file anywhere up to the root; no frames at all
         sim(root.resolve("broken/truncated"), 1.5, 12, 3L);
         truncate(root.resolve("broken/truncated/f0001.png"));
@@ -106,7 +109,7 @@ class BatchRunnerTest {
     @Test
     void summaryVerdictsEqualThoseOfEachSeriesAnalysedAlone() {
         Map<String, SeriesSummary> rows = bySeries(baseline.outcome().summary());
-        assertEquals(7, rows.size(), rows.keySet().toString());
+        assertEquals(8, rows.size(), rows.keySet().toString());
         BatchRunner.Options o = options();
         for (String rel : GOOD) {
             SeriesSummary row = rows.get(rel);
@@ -139,6 +142,25 @@ class BatchRunnerTest {
     }
 
     @Test
+    void aPeriodicSeriesGetsTheLockInVerdictOfTheSeriesAnalysedAlone() {
+        SeriesSummary row = bySeries(baseline.outcome().summary()).get("boardC/pulsed");
+        assertNull(row.error(), row.error());
+        assertEquals("lock-in", row.mode());
+        Path folder = root.resolve("boardC/pulsed");
+        Series s = Series.open(folder, null, ReadContext.DEFAULT_MAX_PIXELS);
+        BatchRunner.Options o = options();
+        // reference: the analyze command's lock-in call on the series alone
+        Verdict v = org.risetrace.analysis.LockInAnalyzer.analyze(s,
+                BoardFile.read(folder.resolve("board.json"), Materials.load().names()), folder.resolve("board.json"),
+                folder.toString(), o.analysis(), SeriesAnalyzer.emissivity(s.profile()), o.threads(),
+                Analyzer.Progress.NONE).result().verdict();
+        assertEquals(v.status().word(), row.status());
+        assertEquals(v.ref(), row.designator());
+        assertEquals(v.rateKPerS(), row.rateKPerS());
+        assertEquals(v.separationSigma(), row.separationSigma());
+    }
+
+    @Test
     void brokenSeriesCarryTheirOneLineErrorAndExitCodeIsOneThroughMain() throws IOException {
         Path out = tmp.resolve("out-main");
         Result r = runMain("batch", root.toString(), "--out", out.toString(), "--jobs", "2", "--quiet");
@@ -158,7 +180,7 @@ class BatchRunnerTest {
         assertEquals(3, rows.values().stream().filter(SeriesSummary::failed).count());
         // the quiet log names each failed series on one line, and the totals go to stdout
         assertEquals(3, r.err().lines().filter(l -> l.contains("FAILED")).count(), r.err());
-        assertTrue(r.out().contains("7 series: 7 analysed, 0 unchanged and skipped, 3 failed"), r.out());
+        assertTrue(r.out().contains("8 series: 8 analysed, 0 unchanged and skipped, 3 failed"), r.out());
         String index = Files.readString(out.resolve("index.html"));
         assertTrue(index.contains("no board, A&amp;B"), "HTML-escaped");
         assertFalse(index.contains("A&B"), "no raw ampersand");
@@ -171,11 +193,11 @@ class BatchRunnerTest {
     void aSecondRunSkipsEverythingAndForceRedoesIt() throws IOException {
         Path out = tmp.resolve("out-rerun");
         BatchRunner.Outcome first = BatchRunner.run(root, out, options(), BatchRunner.Listener.NONE);
-        assertEquals(7, first.analysed());
+        assertEquals(8, first.analysed());
         byte[] json = Files.readAllBytes(out.resolve("boardA/inj1/analysis.json"));
         BatchRunner.Outcome second = BatchRunner.run(root, out, options(), BatchRunner.Listener.NONE);
         assertEquals(0, second.analysed());
-        assertEquals(7, second.skipped());
+        assertEquals(8, second.skipped());
         assertEquals(first.summary(), second.summary());
         assertEquals(new String(json, StandardCharsets.UTF_8), Files.readString(out.resolve("boardA/inj1/analysis.json")),
                 "kept, not rewritten");
@@ -186,12 +208,12 @@ class BatchRunnerTest {
             Files.writeString(sidecar, before.replaceFirst("\\{", "{\n  \"notes\" : \"re-run\","));
             BatchRunner.Outcome third = BatchRunner.run(root, out, options(), BatchRunner.Listener.NONE);
             assertEquals(1, third.analysed());
-            assertEquals(6, third.skipped());
+            assertEquals(7, third.skipped());
         } finally {
             Files.writeString(sidecar, before);
         }
         BatchRunner.Outcome forced = BatchRunner.run(root, out, options().withForce(true), BatchRunner.Listener.NONE);
-        assertEquals(7, forced.analysed());
+        assertEquals(8, forced.analysed());
         assertEquals(0, forced.skipped());
         assertEquals(first.summary(), forced.summary());
     }
@@ -202,7 +224,7 @@ class BatchRunnerTest {
         BatchSummary a = BatchRunner.run(root, s1, options().withShard(Shard.parse("1/2")), BatchRunner.Listener.NONE).summary();
         BatchSummary b = BatchRunner.run(root, s2, options().withShard(Shard.parse("2/2")), BatchRunner.Listener.NONE).summary();
         assertEquals(4, a.total());
-        assertEquals(3, b.total());
+        assertEquals(4, b.total());
         assertEquals("1/2", a.shard());
         Result r = runMain("batch", "merge", s1.toString(), s2.toString(), "--out", merged.toString());
         assertEquals(Main.EXIT_INPUT_REJECTED, r.code(), "three series failed: " + r.err());

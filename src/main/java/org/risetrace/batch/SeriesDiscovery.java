@@ -18,10 +18,13 @@ import java.util.stream.Stream;
  * Finds the series under a root: every folder (the root included) holding a file with a frame extension (what
  * {@link Series#open} reads) or a series.json, each with its own board.json or the nearest parent's up to the root.
  * A folder with a series.json but no frames is kept, so that its error ("no frame files") reaches the summary.
- * Hidden folders and the batch's own output folder are not entered.
+ * Hidden folders, the batch's own output folder and other batch output folders (summary.json with index.html) are
+ * not entered; parts.csv and summary.csv (our outputs) do not make a folder a series.
  */
 public final class SeriesDiscovery {
     public static final String BOARD_FILE = "board.json";
+    /** Files our commands write beside a series' results; never taken for frames when looking for series. */
+    static final java.util.Set<String> OUR_OUTPUTS = java.util.Set.of("parts.csv", SummaryCsv.FILE_NAME);
 
     private SeriesDiscovery() {
     }
@@ -50,12 +53,15 @@ public final class SeriesDiscovery {
             String name = p.getFileName().toString();
             String lower = name.toLowerCase(Locale.ROOT);
             if (name.startsWith(".") || lower.equals(Series.BENCH_READINGS_FILE)) continue;
+            if (OUR_OUTPUTS.contains(name)) continue; // parts.csv of an earlier analyze run is not a frame
             if (lower.equals(Sidecars.FILE_NAME) || FrameReaders.isImageFile(p)) series = true;
         }
         if (series) found.add(new SeriesTask(folder, relative(root, folder), boardFor(root, folder)));
         for (Path p : entries) {
             if (!Files.isDirectory(p) || p.getFileName().toString().startsWith(".")) continue;
             if (excluded != null && p.toAbsolutePath().normalize().equals(excluded)) continue;
+            if (Files.isRegularFile(p.resolve(BatchSummary.JSON_FILE)) && Files.isRegularFile(p.resolve(IndexHtml.FILE_NAME)))
+                continue; // another batch's output folder (for example under risetrace-out/ in the root)
             visit(root, p, excluded, found);
         }
     }

@@ -265,13 +265,20 @@ class BatchRunnerTest {
     }
 
     @Test
-    void discoveryInheritsTheNearestBoardAndSkipsTheOutputFolderAndHiddenFolders() throws IOException {
+    void discoveryInheritsTheNearestBoardAndSkipsOutputAndHiddenFolders() throws IOException {
         Path r = tmp.resolve("discovery");
         Files.createDirectories(r.resolve("a/b/.hidden"));
         Files.createDirectories(r.resolve("out/x"));
         Files.writeString(r.resolve("board.json"), "{}");
         Files.writeString(r.resolve("a/board.json"), "{}");
         for (String d : new String[]{"a/b", "a/b/.hidden", "out/x", "."}) Files.writeString(r.resolve(d).resolve("f1.png"), "x");
+        // an earlier batch's output and an analyze output inside the root are not series
+        Files.createDirectories(r.resolve("risetrace-out/batch-old/a"));
+        Files.writeString(r.resolve("risetrace-out/batch-old/summary.json"), "{}");
+        Files.writeString(r.resolve("risetrace-out/batch-old/index.html"), "");
+        Files.writeString(r.resolve("risetrace-out/batch-old/a/f1.png"), "x");
+        Files.createDirectories(r.resolve("risetrace-out/one"));
+        Files.writeString(r.resolve("risetrace-out/one/parts.csv"), "x");
         List<SeriesTask> found = SeriesDiscovery.find(r, r.resolve("out"));
         List<String> rels = new ArrayList<>();
         for (SeriesTask t : found) rels.add(t.relativePath());

@@ -42,8 +42,9 @@ public record Manifest(
 
     /** True when outputs made under {@code this} stand for the same inputs, parameters and tool. */
     boolean matches(String version, String inputsSha256, String parameters) {
-        return SCHEMA.equals(schema) && this.version.equals(version) && this.inputsSha256.equals(inputsSha256)
-                && this.parameters.equals(parameters);
+        return SCHEMA.equals(schema) && java.util.Objects.equals(this.version, version)
+                && java.util.Objects.equals(this.inputsSha256, inputsSha256)
+                && java.util.Objects.equals(this.parameters, parameters) && summary != null;
     }
 
     static Manifest readOrNull(Path file) {

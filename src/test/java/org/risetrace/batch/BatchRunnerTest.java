@@ -201,14 +201,17 @@ class BatchRunnerTest {
         assertEquals(first.summary(), second.summary());
         assertEquals(new String(json, StandardCharsets.UTF_8), Files.readString(out.resolve("boardA/inj1/analysis.json")),
                 "kept, not rewritten");
-        // a changed input redoes only its series: series.json of one series gets a note
+        // a changed input redoes only its series (series.json of one series gets a note), and so does a manifest
+        // that is empty or cut short
         Path sidecar = root.resolve("boardB/run1/series.json");
         String before = Files.readString(sidecar);
+        Files.writeString(out.resolve("boardA/inj1").resolve(Manifest.FILE_NAME), "{}");
+        Files.writeString(out.resolve("boardA/inj2").resolve(Manifest.FILE_NAME), "{\"schema\" : \"risetrace-batch-man");
         try {
             Files.writeString(sidecar, before.replaceFirst("\\{", "{\n  \"notes\" : \"re-run\","));
             BatchRunner.Outcome third = BatchRunner.run(root, out, options(), BatchRunner.Listener.NONE);
-            assertEquals(1, third.analysed());
-            assertEquals(7, third.skipped());
+            assertEquals(3, third.analysed());
+            assertEquals(5, third.skipped());
         } finally {
             Files.writeString(sidecar, before);
         }

@@ -78,6 +78,13 @@ class ArchitectureTest {
     }
 
     @Test
+    void onlyTheUserInterfacesUseTheBatchRunner() {
+        for (String stage : new String[]{"frame", "io", "calibration", "board", "registration", "analysis", "report",
+                "sim", "planning", "archive"})
+            mayNotUse(stage, "batch");
+    }
+
+    @Test
     void simulatorUsesOnlyTheHomographyValueOfRegistration() {
         noClasses().that().resideInAPackage("org.risetrace.sim..")
                 .should().dependOnClassesThat(

@@ -21,6 +21,7 @@ import picocli.CommandLine.Command;
                 DemoCommand.class,
                 CalibrateCommand.class,
                 PlanCommand.class, ReadingsCommand.class,
+                BatchCommand.class,
                 CommandLine.HelpCommand.class})
 public final class Main implements Runnable {
     public static final int EXIT_OK = 0;

@@ -175,16 +175,46 @@ public final class SeriesAnalysis {
                 d[i] = sl * curves[leader].riseK()[i] - sq * curves[q].riseK()[i];
                 w[i] = Math.min(ws[leader][i], ws[q][i]);
             }
+            double posErrK = Math.hypot(sl * positionErrorK[leader], sq * positionErrorK[q]) * sigma;
             PartCurve diff = PartCurve.measure(t, d, null, w, Math.max(1, baselineUsed), plan.tStartS(), windowS,
-                    Math.hypot(sl * positionErrorK[leader], sq * positionErrorK[q]) * sigma, options, false);
+                    posErrK, options, false);
             LineFit r = diff.rate();
             if (r == null || !(r.slopeSe() > 0)) continue;
-            double z = r.slope() / r.slopeSe();
+            double se = NOISE_ONLY_SE ? noiseOnlySlopeSe(t, w, windowS, diff.noiseK(), posErrK) : r.slopeSe();
+            if (!(se > 0)) se = r.slopeSe();
+            double z = r.slope() / se;
             if (z < worst) { worst = z; against = cq.ref(); }
         }
         if (against == null) return null;
         double used = Math.min(windowS, t[n - 1] - plan.tStartS());
         return new Verdicts.PairedLead(against, worst, leaderZ, used);
+    }
+
+    static boolean NOISE_ONLY_SE = Boolean.parseBoolean(System.getProperty("risetrace.noiseOnlySe", "true"));
+
+    /**
+     * Standard error of the window's least-squares slope from the measured noise alone: sigma^2 / S_tt (weighted as
+     * in {@link LineFit}), plus the position term in quadrature. The slope over the window is a fixed functional of
+     * the curve; a curve that bends inside the window leaves smooth residuals that are not noise, and counting them as
+     * noise (as the fit's residual variance does, widened again for their serial correlation) made a 44 K lead of a
+     * shorted capacitor "level" at 2.4 standard errors. The noise is measured on the same difference curve, on its
+     * baseline frames or from its second differences (which a smooth bend cancels).
+     */
+    double noiseOnlySlopeSe(double[] t, double[] w, double windowS, double noiseK, double positionErrK) {
+        int n = t.length, from = 0;
+        while (from < n && t[from] <= plan.tStartS()) from++;
+        int to = from;
+        while (to < n && (t[to] <= plan.tStartS() + windowS || to - from < options.minRateFrames())) to++;
+        double sw = 0, swt = 0;
+        int m = 0;
+        for (int i = from; i < to; i++) if (w[i] > 0) { sw += w[i]; swt += w[i] * t[i]; m++; }
+        if (m < 3 || !(noiseK > 0)) return Double.NaN;
+        double tm = swt / sw, stt = 0;
+        for (int i = from; i < to; i++) if (w[i] > 0) stt += w[i] * (t[i] - tm) * (t[i] - tm);
+        double scale = m / sw;
+        double se = Math.sqrt(noiseK * noiseK / (stt * scale));
+        double floor = to - 1 > from ? positionErrK / (t[to - 1] - t[from]) : 0;
+        return Math.hypot(se, floor);
     }
 
     /** Measures, ranks and decides. */

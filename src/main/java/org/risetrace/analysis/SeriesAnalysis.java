@@ -180,7 +180,7 @@ public final class SeriesAnalysis {
                     posErrK, options, false);
             LineFit r = diff.rate();
             if (r == null || !(r.slopeSe() > 0)) continue;
-            double se = NOISE_ONLY_SE ? noiseOnlySlopeSe(t, w, windowS, diff.noiseK(), posErrK) : r.slopeSe();
+            double se = NOISE_ONLY_SE ? modelResidualSlopeSe(t, d, w, windowS, diff.noiseK(), posErrK) : r.slopeSe();
             if (!(se > 0)) se = r.slopeSe();
             double z = r.slope() / se;
             if (z < worst) { worst = z; against = cq.ref(); }
@@ -190,29 +190,49 @@ public final class SeriesAnalysis {
         return new Verdicts.PairedLead(against, worst, leaderZ, used);
     }
 
-    static boolean NOISE_ONLY_SE = Boolean.parseBoolean(System.getProperty("risetrace.noiseOnlySe", "true"));
+    static boolean NOISE_ONLY_SE = Boolean.parseBoolean(System.getProperty("risetrace.modelResidualSe", "true"));
 
     /**
-     * Standard error of the window's least-squares slope from the measured noise alone: sigma^2 / S_tt (weighted as
-     * in {@link LineFit}), plus the position term in quadrature. The slope over the window is a fixed functional of
-     * the curve; a curve that bends inside the window leaves smooth residuals that are not noise, and counting them as
-     * noise (as the fit's residual variance does, widened again for their serial correlation) made a 44 K lead of a
-     * shorted capacitor "level" at 2.4 standard errors. The noise is measured on the same difference curve, on its
-     * baseline frames or from its second differences (which a smooth bend cancels).
+     * Standard error of the window's least-squares slope of a difference curve, with the noise taken from the
+     * residuals of a rise model fitted to that curve ({@link RiseModelFit}: one or two time constants) rather than
+     * from the residuals of the straight line. The slope over the window is a fixed functional of the curve; a curve
+     * that bends inside the window leaves smooth line residuals that are not noise, and counting them as noise (and
+     * widening again for their serial correlation) made a 44 K lead of a shorted capacitor "level" at 2.4 standard
+     * errors. The model's residuals keep what is noise, serial correlation included (their lag-1 correlation widens
+     * the error as in {@link LineFit#widenedForSerialCorrelation}); the measured noise of the curve is the floor.
+     * NaN when no model fits (the caller then keeps the straight line's error).
      */
-    double noiseOnlySlopeSe(double[] t, double[] w, double windowS, double noiseK, double positionErrK) {
+    double modelResidualSlopeSe(double[] t, double[] d, double[] w, double windowS, double noiseK, double positionErrK) {
         int n = t.length, from = 0;
         while (from < n && t[from] <= plan.tStartS()) from++;
         int to = from;
         while (to < n && (t[to] <= plan.tStartS() + windowS || to - from < options.minRateFrames())) to++;
-        double sw = 0, swt = 0;
+        if (to - from < 6) return Double.NaN;
+        double[] tw = java.util.Arrays.copyOfRange(t, 0, to), dw = java.util.Arrays.copyOfRange(d, 0, to);
+        RiseModelFit model = RiseModelFit.fit(tw, dw, plan.tStartS());
+        if (model == null) return Double.NaN;
+        double sw = 0, swt = 0, ss = 0, prev = Double.NaN, num = 0, den = 0;
         int m = 0;
-        for (int i = from; i < to; i++) if (w[i] > 0) { sw += w[i]; swt += w[i] * t[i]; m++; }
-        if (m < 3 || !(noiseK > 0)) return Double.NaN;
-        double tm = swt / sw, stt = 0;
-        for (int i = from; i < to; i++) if (w[i] > 0) stt += w[i] * (t[i] - tm) * (t[i] - tm);
+        for (int i = from; i < to; i++) {
+            if (!(w[i] > 0) || !Double.isFinite(d[i])) continue;
+            double e = d[i] - model.at(t[i]);
+            sw += w[i];
+            swt += w[i] * t[i];
+            ss += w[i] * e * e;
+            den += e * e;
+            if (Double.isFinite(prev)) num += e * prev;
+            prev = e;
+            m++;
+        }
+        int params = model.isDouble() ? 4 : 2;
+        if (m <= params + 2) return Double.NaN;
         double scale = m / sw;
-        double se = Math.sqrt(noiseK * noiseK / (stt * scale));
+        double residual2 = ss * scale / (m - params);
+        double sigma2 = Math.max(residual2, Double.isFinite(noiseK) ? noiseK * noiseK : 0);
+        double tm = swt / sw, stt = 0;
+        for (int i = from; i < to; i++) if (w[i] > 0 && Double.isFinite(d[i])) stt += w[i] * (t[i] - tm) * (t[i] - tm);
+        double lag1 = m >= 4 && den > 0 ? Math.max(0, Math.min(0.8, num / den)) : 0;
+        double se = Math.sqrt(sigma2 / (stt * scale)) * Math.sqrt((1 + lag1) / (1 - lag1));
         double floor = to - 1 > from ? positionErrK / (t[to - 1] - t[from]) : 0;
         return Math.hypot(se, floor);
     }

@@ -101,7 +101,9 @@ class LowEmissivitySourceTest {
         System.out.println("low-emissivity source, without materials: " + describe(plain) + "\nbundled table: " + describe(table));
         assertEquals(VerdictStatus.IDENTIFIED, named.status(), describe(table));
         assertEquals(SOURCE, named.ref(), describe(table));
-        assertEquals(NEIGHBOUR, named.runnerUpRef(), describe(table));
+        // the neighbour is second by rate; the verdict's runner-up is the part the lead is smallest against on whole
+        // rise curves (README, "What the statuses mean"), which need not be the same part
+        assertEquals(NEIGHBOUR, table.result().parts().get(1).ref(), describe(table));
         assertTrue(named.separationSigma() >= AnalysisOptions.defaults().separationSigma(), describe(table));
         PartResult first = table.result().parts().get(0);
         assertEquals(SOURCE, first.ref(), describe(table));

@@ -332,7 +332,19 @@ final class Plots {
         return new double[][]{Arrays.copyOf(tt, m), Arrays.copyOf(vv, m)};
     }
 
-    /** Registration residual RMS per frame over time, one series per status so weak frames stand out. */
+    /** The value plotted per frame: the estimated corner error, else the check patches' residual RMS; NaN if none. */
+    static double registrationValue(FrameRecord f) {
+        if (f.registration() == null) return Double.NaN;
+        Double s = f.registration().cornerSigmaPx();
+        if (s != null && Double.isFinite(s)) return s;
+        Double r = f.registration().rmsPx();
+        return r != null && Double.isFinite(r) ? r : Double.NaN;
+    }
+
+    /**
+     * The estimated corner error per frame over time (the residual RMS where a frame has no estimate), one series per
+     * status so weak frames stand out.
+     */
     static byte[] registrationPng(List<FrameRecord> frames) {
         XYSeries ok = new XYSeries("ok / marked", true, true);
         XYSeries weak = new XYSeries("weak", true, true);
@@ -340,14 +352,13 @@ final class Plots {
         XYSeriesCollection data = new XYSeriesCollection();
         for (FrameRecord f : frames) {
             if (f.registration() != null && "failed".equals(f.registration().status()) && Double.isFinite(f.tS())) {
-                Double r = f.registration().rmsPx();
-                failed.add(f.tS(), r != null && Double.isFinite(r) ? r : 0.0);
+                double v = registrationValue(f);
+                failed.add(f.tS(), Double.isFinite(v) ? v : 0.0);
                 continue;
             }
-            if (f.registration() == null || f.registration().rmsPx() == null) continue;
-            double rms = f.registration().rmsPx();
-            if (!Double.isFinite(rms) || !Double.isFinite(f.tS())) continue;
-            if ("weak".equals(f.registration().status())) weak.add(f.tS(), rms); else ok.add(f.tS(), rms);
+            double v = registrationValue(f);
+            if (!Double.isFinite(v) || !Double.isFinite(f.tS())) continue;
+            if ("weak".equals(f.registration().status())) weak.add(f.tS(), v); else ok.add(f.tS(), v);
         }
         data.addSeries(ok);
         data.addSeries(weak);
@@ -360,7 +371,7 @@ final class Plots {
         renderer.setSeriesPaint(2, Color.BLACK);
         renderer.setSeriesShape(2, cross(5));
         NumberAxis xAxis = plainAxis("time in the series (s)");
-        NumberAxis yAxis = plainAxis("residual RMS (px)");
+        NumberAxis yAxis = plainAxis("estimated corner error (px)");
         yAxis.setAutoRangeIncludesZero(true);
         yAxis.setUpperMargin(0.15);
         XYPlot plot = new XYPlot(data, xAxis, yAxis, renderer);

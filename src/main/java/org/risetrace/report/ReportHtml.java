@@ -319,14 +319,15 @@ public final class ReportHtml {
 
         // registration and frames
         h.append("<section><h2>Registration and source frames</h2>\n");
-        long usable = frames.stream().filter(f -> f.registration() != null && f.registration().rmsPx() != null
-                && Double.isFinite(f.registration().rmsPx())).count();
+        long usable = frames.stream().filter(f -> Double.isFinite(Plots.registrationValue(f))).count();
         if (usable >= 3)
-            figure(h, Plots.registrationPng(frames), "Registration residual",
-                    "Residual RMS of the mapping from board to frame, per frame.");
+            figure(h, Plots.registrationPng(frames), "Registration: estimated corner error",
+                    "Estimated RMS error of the four board corners per frame (corner_sigma_px: the alignment's own"
+                            + " uncertainty and the check patches' implied correction, calibrated on simulated series with"
+                            + " known truth); where a frame has no estimate, the check patches' residual RMS.");
         summary(h, frames);
         h.append("<table class=\"frames\">\n<thead><tr><th>#</th><th>file</th><th>t (s)</th><th>used</th>")
-                .append("<th>registration</th><th>RMS (px)</th><th>reason</th><th>SHA-256</th></tr></thead>\n<tbody>\n");
+                .append("<th>registration</th><th>corner \u03c3 (px)</th><th>RMS (px)</th><th>reason</th><th>SHA-256</th></tr></thead>\n<tbody>\n");
         for (int k = 0; k < frames.size(); k++) {
             FrameRecord f = frames.get(k);
             FrameRecord.Registration reg = f.registration();
@@ -334,7 +335,8 @@ public final class ReportHtml {
             h.append("<tr class=\"st-").append(esc(st == null ? "none" : st)).append("\"><td>").append(k + 1)
                     .append("</td><td>").append(esc(f.file())).append("</td><td>").append(fixed(f.tS(), 1))
                     .append("</td><td>").append(f.used() ? "yes" : "<strong>no</strong>").append("</td><td>")
-                    .append(esc(st)).append("</td><td>").append(reg == null ? "\u2013" : fixed(reg.rmsPx(), 2))
+                    .append(esc(st)).append("</td><td>").append(reg == null || reg.cornerSigmaPx() == null ? "\u2013" : fixed(reg.cornerSigmaPx(), 2))
+                    .append("</td><td>").append(reg == null ? "\u2013" : fixed(reg.rmsPx(), 2))
                     .append("</td><td>").append(reg == null ? "" : esc(reg.reason())).append("</td><td class=\"hash\">")
                     .append(esc(f.sha256())).append("</td></tr>\n");
         }

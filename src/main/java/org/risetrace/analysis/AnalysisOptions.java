@@ -22,14 +22,16 @@ import java.util.Map;
  * @param ambientGapMm       background band: gap outside the outline
  * @param ambientBandMm      background band: width
  * @param pxPerMm            board-space resolution (null: the rectifier's default for the board)
+ * @param stillCamera        the user declares that the camera did not move (on a stand): every frame takes the
+ *                           outline as marked unless its own alignment is trusted and says otherwise
  */
 public record AnalysisOptions(Integer baselineFrames, double kSigma, int onsetFrames, double rateWindowS,
                               int minRateFrames, double separationSigma, int lastFrames, double hotspotKSigma,
                               double blurPx, int maxHotspots, double weakFractionLimit, double ambientGapMm,
-                              double ambientBandMm, Double pxPerMm) {
+                              double ambientBandMm, Double pxPerMm, boolean stillCamera) {
 
     public static AnalysisOptions defaults() {
-        return new AnalysisOptions(null, 3.0, 2, 30.0, 12, 3.0, 5, 5.0, 1.0, 10, 0.25, 1.0, 3.0, null);
+        return new AnalysisOptions(null, 3.0, 2, 30.0, 12, 3.0, 5, 5.0, 1.0, 10, 0.25, 1.0, 3.0, null, false);
     }
 
     public AnalysisOptions {
@@ -44,32 +46,38 @@ public record AnalysisOptions(Integer baselineFrames, double kSigma, int onsetFr
 
     public AnalysisOptions withBaselineFrames(Integer n) {
         return new AnalysisOptions(n, kSigma, onsetFrames, rateWindowS, minRateFrames, separationSigma, lastFrames,
-                hotspotKSigma, blurPx, maxHotspots, weakFractionLimit, ambientGapMm, ambientBandMm, pxPerMm);
+                hotspotKSigma, blurPx, maxHotspots, weakFractionLimit, ambientGapMm, ambientBandMm, pxPerMm, stillCamera);
     }
 
     public AnalysisOptions withKSigma(double k) {
         return new AnalysisOptions(baselineFrames, k, onsetFrames, rateWindowS, minRateFrames, separationSigma,
-                lastFrames, hotspotKSigma, blurPx, maxHotspots, weakFractionLimit, ambientGapMm, ambientBandMm, pxPerMm);
+                lastFrames, hotspotKSigma, blurPx, maxHotspots, weakFractionLimit, ambientGapMm, ambientBandMm, pxPerMm, stillCamera);
     }
 
     public AnalysisOptions withRateWindowS(double s) {
         return new AnalysisOptions(baselineFrames, kSigma, onsetFrames, s, minRateFrames, separationSigma, lastFrames,
-                hotspotKSigma, blurPx, maxHotspots, weakFractionLimit, ambientGapMm, ambientBandMm, pxPerMm);
+                hotspotKSigma, blurPx, maxHotspots, weakFractionLimit, ambientGapMm, ambientBandMm, pxPerMm, stillCamera);
     }
 
     public AnalysisOptions withSeparationSigma(double s) {
         return new AnalysisOptions(baselineFrames, kSigma, onsetFrames, rateWindowS, minRateFrames, s, lastFrames,
-                hotspotKSigma, blurPx, maxHotspots, weakFractionLimit, ambientGapMm, ambientBandMm, pxPerMm);
+                hotspotKSigma, blurPx, maxHotspots, weakFractionLimit, ambientGapMm, ambientBandMm, pxPerMm, stillCamera);
     }
 
     public AnalysisOptions withPxPerMm(Double p) {
         return new AnalysisOptions(baselineFrames, kSigma, onsetFrames, rateWindowS, minRateFrames, separationSigma,
-                lastFrames, hotspotKSigma, blurPx, maxHotspots, weakFractionLimit, ambientGapMm, ambientBandMm, p);
+                lastFrames, hotspotKSigma, blurPx, maxHotspots, weakFractionLimit, ambientGapMm, ambientBandMm, p, stillCamera);
     }
 
     public AnalysisOptions withLastFrames(int n) {
         return new AnalysisOptions(baselineFrames, kSigma, onsetFrames, rateWindowS, minRateFrames, separationSigma, n,
-                hotspotKSigma, blurPx, maxHotspots, weakFractionLimit, ambientGapMm, ambientBandMm, pxPerMm);
+                hotspotKSigma, blurPx, maxHotspots, weakFractionLimit, ambientGapMm, ambientBandMm, pxPerMm, stillCamera);
+    }
+
+    public AnalysisOptions withStillCamera(boolean still) {
+        return new AnalysisOptions(baselineFrames, kSigma, onsetFrames, rateWindowS, minRateFrames, separationSigma,
+                lastFrames, hotspotKSigma, blurPx, maxHotspots, weakFractionLimit, ambientGapMm, ambientBandMm, pxPerMm,
+                still);
     }
 
     /** The parameters as written to analysis.json, snake_case names. */
@@ -89,6 +97,7 @@ public record AnalysisOptions(Integer baselineFrames, double kSigma, int onsetFr
         m.put("ambient_gap_mm", ambientGapMm);
         m.put("ambient_band_mm", ambientBandMm);
         m.put("px_per_mm", pxPerMm);
+        m.put("still_camera", stillCamera);
         m.put("ranking_statistic", "p95");
         return m;
     }

@@ -362,6 +362,7 @@ public final class SeriesAnalysis {
                 order[0]) : null;
         Verdict verdict = Verdicts.insufficientEvidence(usableTimes(t, np), n, plan.tStartS(), np,
                 Verdicts.MIN_USABLE_FRAMES);
+        if (verdict != null) verdict = Verdicts.withAlignmentHint(verdict, records, options.stillCamera());
         if (verdict == null)
             verdict = Verdicts.decide(ranked, hotspots, sm.sigma(), weakCount, n, options, "K/s", parts, blurMarginMm,
                     paired);

@@ -66,7 +66,9 @@ public final class SeriesAnalyzer {
         long boardPixels = MemoryBudget.boardRasterPixels(board, pxPerMm, boardFile);
         threads = MemoryBudget.threadsThatFit(reference.source(), reference.width(), reference.height(), boardPixels,
                 threads);
-        Registrar registrar = Registrars.create(reference, board, RegistrationConfig.defaults());
+        Registrar registrar = options.stillCamera()
+                ? Registrars.still(reference, board, RegistrationConfig.defaults())
+                : Registrars.create(reference, board, RegistrationConfig.defaults());
         Rectifier rectifier = new Rectifier(board, pxPerMm);
         double[] times = new double[series.size()];
         for (int i = 0; i < times.length; i++) times[i] = series.tSeconds(i);

@@ -220,6 +220,27 @@ public final class Verdicts {
         return null;
     }
 
+    /**
+     * An undecided verdict with the frames that could not be aligned named, when they are what left too little:
+     * the count, the first one's reason, and what to do about it.
+     */
+    static Verdict withAlignmentHint(Verdict undecided, List<FrameRecord> frames, boolean stillCamera) {
+        int failed = 0;
+        FrameRecord first = null;
+        for (FrameRecord f : frames) {
+            if (f.registration() == null || !"failed".equals(f.registration().status())) continue;
+            if (failed++ == 0) first = f;
+        }
+        if (failed == 0 || 2 * failed < frames.size()) return undecided;
+        String hint = stillCamera ? "" : "; if the camera stood still (on a stand), --still-camera takes the outline "
+                + "as marked for frames that cannot be aligned; a hand-held capture of a board that shows no texture "
+                + "cannot be aligned at all (README, \"Plain boards\")";
+        return new Verdict(undecided.status(), undecided.ref(), undecided.rateKPerS(), undecided.runnerUpRef(),
+                undecided.separationSigma(), undecided.reason() + String.format(Locale.ROOT,
+                "; %d of %d frames could not be aligned (first: %s: %s)%s", failed, frames.size(), first.file(),
+                first.registration().reason(), hint));
+    }
+
     private static Verdict undecided(String reason) {
         return new Verdict(VerdictStatus.INCONCLUSIVE, null, null, null, null, "the data cannot decide: " + reason);
     }

@@ -94,6 +94,11 @@ public final class AnalyzeCommand implements Callable<Integer> {
         @Option(names = "--threads", paramLabel = "N", description = "worker threads (default: all cores, at least 2)")
         Integer threads;
 
+        @Option(names = "--still-camera", description = "the camera did not move between frames (on a stand): a frame "
+                + "that cannot be aligned takes the outline as marked instead of being left out; for boards whose "
+                + "picture shows no texture (README, \"Plain boards\")")
+        boolean stillCamera;
+
         AnalysisOptions options(CommandLine cl) {
             // ranges at the boundary: Infinity or NaN would pass the core's "> 0" tests and give no verdict at all
             if (!(Double.isFinite(kSigma) && kSigma > 0 && kSigma <= 100))
@@ -113,7 +118,7 @@ public final class AnalyzeCommand implements Callable<Integer> {
             try {
                 return AnalysisOptions.defaults().withBaselineFrames(baselineFrames).withKSigma(kSigma)
                         .withRateWindowS(rateWindowS).withSeparationSigma(separation).withLastFrames(lastFrames)
-                        .withPxPerMm(pxPerMm);
+                        .withPxPerMm(pxPerMm).withStillCamera(stillCamera);
             } catch (IllegalArgumentException e) {
                 throw new CommandLine.ParameterException(cl, e.getMessage());
             }

@@ -16,4 +16,12 @@ public final class Registrars {
     public static Registrar create(Frame reference, Board board, RegistrationConfig config) {
         return new DirectRegistrar(ReferenceModel.prepare(reference, board, config), config);
     }
+
+    /**
+     * As {@link #create}, for a camera the user declares still (on a stand): a frame that cannot be aligned takes
+     * the outline as marked instead of failing; a trusted alignment that shows the camera moved fails the frame.
+     */
+    public static Registrar still(Frame reference, Board board, RegistrationConfig config) {
+        return new StillCameraRegistrar(create(reference, board, config), board, reference);
+    }
 }

@@ -443,6 +443,15 @@ public record Scenario(
         return withCamera(c.with(c.width(), c.height(), c.focalPx(), c.motion(), c.netdK(), c.encoding(), fixedPatternK, c.blurSigmaPx()));
     }
 
+    /** The reflected apparent temperature; null: ambient at the start (a board at ambient then shows no texture). */
+    public Scenario withReflectedC(Double reflectedC) {
+        CameraSpec c = camera;
+        return withCamera(new CameraSpec(c.width(), c.height(), c.focalPx(), c.distanceMm(), c.tiltDeg(), c.tiltAxisDeg(),
+                c.rotationDeg(), c.offsetPx(), c.motion(), c.blurSigmaPx(), c.netdK(), c.fixedPatternK(), c.bandUm(),
+                c.encoding(), c.spanC(), c.autoSpan(), c.supersample(), c.backgroundEmissivity(), reflectedC,
+                c.exifStart()));
+    }
+
     public Scenario withBlur(double sigmaPx) {
         CameraSpec c = camera;
         return withCamera(c.with(c.width(), c.height(), c.focalPx(), c.motion(), c.netdK(), c.encoding(), c.fixedPatternK(), sigmaPx));

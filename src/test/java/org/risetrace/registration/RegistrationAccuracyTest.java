@@ -80,6 +80,8 @@ class RegistrationAccuracyTest {
         assertTrue(o.ok() >= 0.95 * n, "ok frames " + o);
         assertTrue(o.meanOkError() <= 0.15, "mean corner error (issue #4: <= 0.15 px on a stand) " + o);
         assertTrue(o.maxOkError() <= 1.0, "no ok frame above 1 px (issue #4) " + o);
+        // measured 3 December 2026: 120 of 120 ok, mean 0.016 px, max 0.026 px; regression bars at about twice
+        assertTrue(o.meanOkError() <= 0.035 && o.maxOkError() <= 0.06, "regression bar " + o);
     }
 
     @Test
@@ -91,6 +93,8 @@ class RegistrationAccuracyTest {
         assertTrue(o.ok() >= 0.9 * n, "ok frames " + o);
         assertTrue(o.meanOkError() <= 0.25, "mean corner error (issue #4: <= 0.25 px hand-held) " + o);
         assertTrue(o.maxOkError() <= 1.0, "no ok frame above 1 px (issue #4) " + o);
+        // measured 3 December 2026: 120 of 120 ok, mean 0.024 px, max 0.057 px; regression bars at about twice
+        assertTrue(o.meanOkError() <= 0.05 && o.maxOkError() <= 0.12, "regression bar " + o);
     }
 
     @Test
@@ -117,8 +121,8 @@ class RegistrationAccuracyTest {
                 FrameRegistration g = out.get(i).get();
                 assertEquals(RegistrationStatus.OK, g.status(), g.reason());
                 assertNotNull(g.boardToFrame());
-                // same limit as the hand-held requirement of issue #4, per frame
-                assertTrue(SyntheticScene.cornerError(g.boardCornersPx(), truths.get(i)) <= 0.25, "frame " + i);
+                // twice the hand-held maximum measured in this scene (0.057 px, above); issue #4 allows 0.25 px
+                assertTrue(SyntheticScene.cornerError(g.boardCornersPx(), truths.get(i)) <= 0.12, "frame " + i);
             }
         } finally {
             pool.shutdownNow();

@@ -1,5 +1,6 @@
 package org.risetrace.analysis;
 
+import org.junit.jupiter.api.AfterAll;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.risetrace.board.Board;
@@ -188,10 +189,36 @@ class HandHeldConfidenceTest {
                         ? Scenario.Motion.handheld(5, 0.10, 0.15) : Scenario.Motion.stand(0.15);
                 o = sim(mode, eightBit ? FrameEncoding.U8_SPAN_PNG : FrameEncoding.U16_CENTIKELVIN_PNG, motion, seed);
             }
-            if (o != null) outs.add(o);
+            if (o != null) {
+                outs.add(o);
+                if (o.identified()) IDENTIFIED.add(o);
+            }
         }
         assertEquals(count, outs.size(), "premise: enough " + generator + " " + mode + " series");
         return outs;
+    }
+
+    /** Every identified verdict of every set, for the error-rate test over the whole class. */
+    static final List<Outcome> IDENTIFIED = java.util.Collections.synchronizedList(new java.util.ArrayList<>());
+
+    /**
+     * With the full set: the identified verdicts of all sets and both generators together must reject a 2 % error
+     * rate at 95 % confidence, the one-sided exact binomial test (Clopper and Pearson 1934): P(X <= wrong) under
+     * Binomial(n, 0.02) below 0.05, from commons-math3's {@code BinomialDistribution}. With no wrong verdict that
+     * needs n >= 149 (0.98^149 = 0.049); the full set gives about 200 identified verdicts. The reduced set cannot
+     * have that power: it prints the p-value only.
+     */
+    @AfterAll
+    static void twoPercentErrorRateIsRejected() {
+        int n = IDENTIFIED.size();
+        if (n == 0) return; // a single test method run alone
+        long wrong = IDENTIFIED.stream().filter(o -> !o.right()).count();
+        double p = new org.apache.commons.math3.distribution.BinomialDistribution(n, 0.02)
+                .cumulativeProbability((int) wrong);
+        System.out.printf(Locale.ROOT, "confidence: %d identified verdicts, %d wrong; P(X <= %d | n, 2 %%) = %.3f%n",
+                n, wrong, wrong, p);
+        if (FULL) assertTrue(p < 0.05, String.format(Locale.ROOT, "%d of %d identified verdicts wrong: a 2 %% error "
+                + "rate is not rejected (p = %.3f)", wrong, n, p));
     }
 
     private static String log(List<Outcome> outs) {

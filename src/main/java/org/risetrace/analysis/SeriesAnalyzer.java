@@ -136,7 +136,9 @@ public final class SeriesAnalyzer {
         if (options.pxPerMm() != null) MemoryBudget.requireResolvesParts(board, pxPerMm, boardFile);
         MemoryBudget.threadsThatFit(reference.source(), reference.width(), reference.height(),
                 MemoryBudget.boardRasterPixels(board, pxPerMm, boardFile), 1);
-        Registrar registrar = Registrars.create(reference, board, RegistrationConfig.defaults());
+        Registrar registrar = options.stillCamera()
+                ? Registrars.still(reference, board, RegistrationConfig.defaults())
+                : Registrars.create(reference, board, RegistrationConfig.defaults());
         AmbientSampler ambient = AmbientSampler.forBoard(board, options.ambientGapMm(), options.ambientBandMm());
         SeriesAnalysis.Context context = new SeriesAnalysis.Context(before.source() + " -> " + after.source(),
                 boardFile == null ? null : boardFile.toString(), profileName,

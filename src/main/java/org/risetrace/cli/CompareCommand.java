@@ -53,10 +53,14 @@ public final class CompareCommand implements Callable<Integer> {
         @Option(names = "--px-per-mm", paramLabel = "P", description = "board-space resolution (default: the reference frame's own)")
         Double pxPerMm;
 
+        @Option(names = "--still-camera", description = "the camera did not move between the two frames (on a stand): "
+                + "a frame that cannot be aligned takes the outline as marked (README, \"Plain boards\")")
+        boolean stillCamera;
+
         org.risetrace.analysis.AnalysisOptions options(CommandLine cl) {
             try {
                 return org.risetrace.analysis.AnalysisOptions.defaults().withKSigma(kSigma)
-                        .withSeparationSigma(separation).withPxPerMm(pxPerMm);
+                        .withSeparationSigma(separation).withPxPerMm(pxPerMm).withStillCamera(stillCamera);
             } catch (IllegalArgumentException e) {
                 throw new CommandLine.ParameterException(cl, e.getMessage());
             }
@@ -94,7 +98,10 @@ public final class CompareCommand implements Callable<Integer> {
         Path folder = before.toAbsolutePath().getParent();
         Path sidecar = folder.resolve("series.json");
         Series s = Series.open(List.of(before, after), Files.isRegularFile(sidecar) ? sidecar : null, profile);
-        for (String w : s.warnings()) err.println("risetrace: " + w);
+        // two frames picked from a capture: the sidecar's other entries are expected to be left out
+        for (String w : s.warnings())
+            if (!w.contains("not among the frames read") && !w.contains("which is not in the series"))
+                err.println("risetrace: " + w);
         int ib = s.fileName(0).equals(before.getFileName().toString()) ? 0 : 1;
         Frame fb = s.read(ib), fa = s.read(1 - ib);
         Path boardFile = board != null ? board : folder.resolve("board.json");

@@ -81,6 +81,27 @@ class PlainBoardTest {
     }
 
     @Test
+    void compareOfAPlainBoardOnAStandNeedsStillCameraAndThenNamesTheShortedPart() throws IOException {
+        List<Path> frames;
+        try (var s = java.nio.file.Files.list(plainStand)) {
+            frames = s.filter(p -> p.toString().endsWith(".png")).sorted().toList();
+        }
+        String first = frames.get(0).toString(), last = frames.get(frames.size() - 1).toString();
+        Path out = shared.resolve("cmp");
+        InspectCommandTest.Result plain = InspectCommandTest.run("compare", first, last, "--out", out.toString(),
+                "--force");
+        assertEquals(0, plain.code(), plain.err());
+        JsonNode v = JSON.readTree(out.resolve("analysis.json").toFile()).get("verdict");
+        assertEquals("inconclusive", v.get("status").asText(), v.toString());
+        InspectCommandTest.Result still = InspectCommandTest.run("compare", first, last, "--out", out.toString(),
+                "--force", "--still-camera");
+        assertEquals(0, still.code(), still.err());
+        v = JSON.readTree(out.resolve("analysis.json").toFile()).get("verdict");
+        assertEquals("identified", v.get("status").asText(), v.toString());
+        assertEquals("Q1", v.get("ref").asText()); // simulator truth
+    }
+
+    @Test
     void stillCameraOnAMovingPlainBoardNamesNoWrongPart() throws IOException {
         JsonNode v = analyze(plainHand, "hand-still", "--still-camera").get("verdict");
         if (v.get("status").asText().equals("identified")) assertEquals("Q1", v.get("ref").asText(), v.toString());

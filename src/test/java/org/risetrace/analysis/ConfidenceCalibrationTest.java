@@ -78,6 +78,13 @@ class ConfidenceCalibrationTest {
                 + " strong leads identified" + c.log());
     }
 
+    /** Least-squares slope of the finite points i in [from, to), by the reference library. */
+    static double olsSlope(double[] t, double[] y, int from, int to) {
+        org.apache.commons.math3.stat.regression.SimpleRegression r = new org.apache.commons.math3.stat.regression.SimpleRegression();
+        for (int i = from; i < to; i++) if (Double.isFinite(y[i])) r.addData(t[i], y[i]);
+        return r.getSlope();
+    }
+
     static Counts simulate(Path dir) {
         SplittableRandom rnd = new SplittableRandom(20261201);
         int identified = 0, wrong = 0, strong = 0, strongIdentified = 0;
@@ -97,8 +104,8 @@ class ConfidenceCalibrationTest {
             Analysis visible = analyze(clean, "clean" + k);
             AnalysisOptions o = AnalysisOptions.defaults();
 
-            // true rates: OLS slope (Draper & Smith eq. 1.2.9) of the simulation's true part temperatures over the
-            // window the analysis used; sigma: the analysis' own standard errors
+            // true rates: OLS slope (commons-math3 SimpleRegression, not the code's own LineFit) of the simulation's
+            // true part temperatures over the window the analysis used; sigma: the analysis' own standard errors
             Truth t = out.truth();
             double[] tt = new double[t.frames().size()];
             for (int i = 0; i < tt.length; i++) tt[i] = t.frames().get(i).tS();
@@ -113,11 +120,11 @@ class ConfidenceCalibrationTest {
             // it, the same OLS slope over the same frames of the noise-free twin's rise curve
             Map<String, Double> dieRate = new HashMap<>(), seenRate = new HashMap<>(), se = new HashMap<>();
             for (PartResult p : a.result().parts()) {
-                dieRate.put(p.ref(), LineFit.fit(tt, t.part(p.ref()), null, from, to, 0).slope());
+                dieRate.put(p.ref(), olsSlope(tt, t.part(p.ref()), from, to));
                 se.put(p.ref(), p.rateSe());
             }
             for (RiseCurve c : visible.curves())
-                if (c.tS().length == tt.length) seenRate.put(c.ref(), LineFit.fit(c.tS(), c.riseK(), null, from, to, 0).slope());
+                if (c.tS().length == tt.length) seenRate.put(c.ref(), olsSlope(c.tS(), c.riseK(), from, to));
             String source = t.primarySource();
             double dieSeparation = separation(dieRate, se, source);
             double trueSeparation = seenRate.size() == dieRate.size() ? separation(seenRate, se, source) : Double.NEGATIVE_INFINITY;

@@ -17,10 +17,31 @@ class MemoryBudgetTest {
     static final Path FRAME = Path.of("f.png");
     static final long HEAP = Runtime.getRuntime().maxMemory();
 
-    /** The frame pixels at which exactly {@code threads} workers still fit this heap (no board raster). */
+    /**
+     * The largest frame (in pixels) whose estimate {@link MemoryBudget#need} for {@code threads} workers fits this
+     * heap, found by bisection on the production estimate itself (called, not re-derived here).
+     */
     static long pixelsFitting(int threads) {
-        return (HEAP - MemoryBudget.FIXED_BYTES) / (MemoryBudget.FIRST_THREAD_BYTES_PER_PX
-                + MemoryBudget.EXTRA_THREAD_BYTES_PER_PX * (threads - 1));
+        long lo = 0, hi = HEAP;
+        while (hi - lo > 1) {
+            long mid = (lo + hi) >>> 1;
+            if (MemoryBudget.need(mid, 0, threads) <= HEAP) lo = mid;
+            else hi = mid;
+        }
+        return lo;
+    }
+
+    @Test
+    void estimateIsNeverBelowTheHeapsMeasuredToBeNeeded() {
+        // measured (MemoryBudget's notes): a 1280 x 1024 simulated series of 8 frames failed with -Xmx128m and ran
+        // with -Xmx160m on one thread; on two it failed with -Xmx160m and ran with -Xmx192m. A safe estimate asks at
+        // least for the heap that was seen to suffice, and grows with the frame and with every worker.
+        long px = 1280L * 1024;
+        assertTrue(MemoryBudget.need(px, 0, 1) >= 160L << 20, "one worker: " + (MemoryBudget.need(px, 0, 1) >> 20) + " MB");
+        assertTrue(MemoryBudget.need(px, 0, 2) >= 192L << 20, "two workers: " + (MemoryBudget.need(px, 0, 2) >> 20) + " MB");
+        assertTrue(MemoryBudget.need(2 * px, 0, 1) > MemoryBudget.need(px, 0, 1));
+        assertTrue(MemoryBudget.need(px, 0, 3) > MemoryBudget.need(px, 0, 2));
+        assertTrue(MemoryBudget.need(px, 1_000_000, 1) > MemoryBudget.need(px, 0, 1), "the board raster counts");
     }
 
     @Test
@@ -31,6 +52,7 @@ class MemoryBudgetTest {
     @Test
     void framesThatFitOneWorkerOnlyRunOnOne() {
         long px = (pixelsFitting(1) + pixelsFitting(2)) / 2; // fits one worker, not two
+        assertTrue(px > pixelsFitting(2), "premise: two workers need more per pixel than one");
         int side = (int) Math.sqrt(px);
         assertEquals(1, MemoryBudget.threadsThatFit(FRAME, side, (int) (px / side), 0, 2));
     }

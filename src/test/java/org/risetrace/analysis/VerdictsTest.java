@@ -61,6 +61,16 @@ class VerdictsTest {
         Part r = new Part("R1", "resistor", null, 10, 10, 4, 2, 90.0);
         assertTrue(Verdicts.nearAnyPart(List.of(r), 12.5, 10, 1.6));
         assertTrue(!Verdicts.nearAnyPart(List.of(r), 12.5, 10, 1.4));
+        // a turn that is not its own mirror image: a 10 x 2 mm part at 30 degrees, counter-clockwise as seen on the
+        // y-down board (Part), has its +x end up and to the right; the point 6 mm along that axis,
+        // (10 + 6 cos 30, 10 - 6 sin 30) = (15.196, 7.0), is 1 mm beyond the end. Its mirror image (15.196, 13.0)
+        // lies 3.0 mm along and 5.196 mm across the axis: 4.196 mm from the long side (hand arithmetic)
+        Part slanted = new Part("L1", "inductor", null, 10, 10, 10, 2, 30.0);
+        double x = 10 + 6 * Math.cos(Math.toRadians(30));
+        assertTrue(Verdicts.nearAnyPart(List.of(slanted), x, 7.0, 1.05));
+        assertTrue(!Verdicts.nearAnyPart(List.of(slanted), x, 7.0, 0.95));
+        assertTrue(!Verdicts.nearAnyPart(List.of(slanted), x, 13.0, 4.1));
+        assertTrue(Verdicts.nearAnyPart(List.of(slanted), x, 13.0, 4.3));
     }
 
     // --- issue 17: each rule of the verdict with its own test; the expected numbers are worked out beside them

@@ -37,8 +37,10 @@ class EmissivityCorrectionTest {
         //   T_refl = 20 C = 293.15 K: x_r = 1438.7769/293.15 = 4.907989, e^x_r = 135.36687, 1/(e^x_r - 1) = 0.00744231
         //   e = 0.5: 1/(e^x_o - 1) = (0.01178851 - 0.5 * 0.00744231) / 0.5 = 0.01613470
         //   x_o = ln(1 + 1/0.01613470) = 4.142789, T_obj = 1438.7769/4.142789 = 347.2967 K = 74.1467 C
-        assertEquals(74.1467, EmissivityCorrection.objectCelsius(50, 0.5, 20, NARROW_10_UM), 0.05);
-        assertEquals(50.0, EmissivityCorrection.apparentCelsius(74.1467, 0.5, 20, NARROW_10_UM), 0.05);
+        // A 0.02 um band differs from the single wavelength by ~1e-6 relative, the table by under 1 mK: within 1 mK
+        // (was 50 mK, which a band or table error 50 times the stated accuracy would have passed)
+        assertEquals(74.1467, EmissivityCorrection.objectCelsius(50, 0.5, 20, NARROW_10_UM), 0.001);
+        assertEquals(50.0, EmissivityCorrection.apparentCelsius(74.1467, 0.5, 20, NARROW_10_UM), 0.001);
     }
 
     @Test
@@ -46,7 +48,7 @@ class EmissivityCorrectionTest {
         // Over all wavelengths L = sigma T^4 / pi, so T_obj^4 = (T_app^4 - (1 - e) T_refl^4) / e (Stefan-Boltzmann):
         //   323.15^4 = 1.0904773e10, 293.15^4 = 7.3851546e9
         //   (1.0904773e10 - 0.5 * 7.3851546e9) / 0.5 = 1.4424392e10, fourth root = 346.5568 K = 73.4068 C
-        assertEquals(73.4068, EmissivityCorrection.objectCelsius(50, 0.5, 20, FULL_SPECTRUM), 0.05);
+        assertEquals(73.4068, EmissivityCorrection.objectCelsius(50, 0.5, 20, FULL_SPECTRUM), 0.001);
         // the band result lies between the 10 um and the full-spectrum one: the long-wave band is nearer 10 um
         double band = EmissivityCorrection.objectCelsius(50, 0.5, 20, LWIR);
         assertTrue(band > 73.4068 && band < 74.1467 + 0.5, "7.5-14 um result " + band);
@@ -83,8 +85,8 @@ class EmissivityCorrectionTest {
         //           = 0.9 (0.8 * 1.938803e10 + 0.2 * 7.385155e9) + 7.385155e8
         //           = 0.9 (1.551043e10 + 1.477031e9) + 7.385155e8 = 1.528872e10 + 7.385155e8 = 1.602723e10
         //   T_app = (1.602723e10)^(1/4) = 355.807 K = 82.657 C
-        assertEquals(82.657, EmissivityCorrection.apparentCelsius(100, 0.8, 20, 0.9, 20, FULL_SPECTRUM), 0.05);
-        assertEquals(100, EmissivityCorrection.objectCelsius(82.657, 0.8, 20, 0.9, 20, FULL_SPECTRUM), 0.05);
+        assertEquals(82.657, EmissivityCorrection.apparentCelsius(100, 0.8, 20, 0.9, 20, FULL_SPECTRUM), 0.001);
+        assertEquals(100, EmissivityCorrection.objectCelsius(82.657, 0.8, 20, 0.9, 20, FULL_SPECTRUM), 0.001);
         double app = EmissivityCorrection.apparentCelsius(100, 0.8, 20, 0.7, 35, LWIR);
         assertEquals(100, EmissivityCorrection.objectCelsius(app, 0.8, 20, 0.7, 35, LWIR), 1e-3);
     }

@@ -71,13 +71,17 @@ class OutputFindingsTest {
         AnalysisOptions o = AnalysisOptions.defaults();
         Analysis plain = SeriesAnalyzer.compare(s.read(0), s.read(1), board, null, o, "f32-celsius");
         Analysis corrected = SeriesAnalyzer.compare(s.read(0), s.read(1), board, null, o, s.sidecar(), s.profile());
+        int checked = 0;
         for (PartResult p : corrected.result().parts()) {
             PartResult q = plain.result().parts().stream().filter(x -> x.ref().equals(p.ref())).findFirst().orElseThrow();
             if (q.riseK() < 1.0) continue; // the first-order rule is checked where the rise stands clear of noise
             // dT_object = dT_apparent / e to first order (reflected at ambient): within 2 % for a few kelvin
             assertEquals(q.riseK() / p.emissivity(), p.riseK(), 0.02 * p.riseK(), p.ref());
+            checked++;
         }
-        assertEquals("U3", corrected.result().verdict().ref()); // truth.json of the demo
+        assertTrue(checked >= 1, "premise: at least one part rose by 1 K or more");
+        assertEquals(org.risetrace.sim.Truth.read(BEFORE_AFTER.resolve("truth.json")).primarySource(),
+                corrected.result().verdict().ref());
     }
 
     @Test

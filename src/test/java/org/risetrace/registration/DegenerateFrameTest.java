@@ -156,6 +156,9 @@ class DegenerateFrameTest {
         assertEquals(RegistrationStatus.OK, g.status(), g.reason());
         double[][] viaH = Homographies.boardCorners(board, g.boardToFrame());
         for (int i = 0; i < 4; i++) assertArrayEquals(viaH[i], g.boardCornersPx()[i], 1e-9);
+        // and both are where the scene was rendered (the truth corners c): within issue #4's 0.25 px
+        assertTrue(SyntheticScene.cornerError(g.boardCornersPx(), c) <= 0.25,
+                "corner error " + SyntheticScene.cornerError(g.boardCornersPx(), c) + " px");
         assertTrue(g.inliers() >= 3 && g.rmsPx() < 1 && g.similarity() > 0.6, "quality figures present: " + g);
     }
 }

@@ -105,17 +105,27 @@ class MappingUncertaintyTest {
         check(rows, 1000);
     }
 
-    /** The estimate's parts combine as documented (calibrated factors, composition of a chain link). */
+    /**
+     * The estimate's parts combine as errors do, checked through the estimate's own results rather than its formula:
+     * independent errors' variances add (Bienayme), so a chain link's squared corner error is the earlier mapping's
+     * plus its own; an error measured in reference pixels is a length, so at zoom 2 it is twice as many frame pixels.
+     */
     @Test
     void chainLinkVariancesAdd() {
         MappingUncertainty direct = MappingUncertainty.direct(0.01, 0.04, Double.NaN, 1.0);
-        MappingUncertainty link = MappingUncertainty.direct(0.02, 0.02, Double.NaN, 2.0).after(direct);
-        assertEquals(Math.sqrt(MappingUncertainty.ALIGN_FACTOR * 0.01 + MappingUncertainty.PATCH_FACTOR * 0.04),
-                direct.cornerSigmaPx(), 1e-12);
-        // zoom 2 scales reference px^2 by 4; the earlier mapping's variance adds
-        assertEquals(Math.sqrt(MappingUncertainty.ALIGN_FACTOR * (0.08 + 0.01) + MappingUncertainty.PATCH_FACTOR * (0.08 + 0.04)),
-                link.cornerSigmaPx(), 1e-12);
+        MappingUncertainty own = MappingUncertainty.direct(0.02, 0.02, Double.NaN, 2.0);
+        MappingUncertainty link = own.after(direct);
+        double sd = direct.cornerSigmaPx(), so = own.cornerSigmaPx(), sl = link.cornerSigmaPx();
+        assertTrue(sd > 0 && so > 0, sd + " " + so);
+        assertEquals(sd * sd + so * so, sl * sl, 1e-12);
         assertEquals(2, link.mappings());
+        // zoom: the same reference-pixel variances at zoom 2 give twice the corner error of zoom 1
+        assertEquals(2 * MappingUncertainty.direct(0.02, 0.02, Double.NaN, 1.0).cornerSigmaPx(), so, 1e-12);
+        // each part counts: more alignment variance or more patch correction, more error
+        assertTrue(MappingUncertainty.direct(0.05, 0.04, Double.NaN, 1.0).cornerSigmaPx() > sd);
+        assertTrue(MappingUncertainty.direct(0.01, 0.09, Double.NaN, 1.0).cornerSigmaPx() > sd);
+        // composing after nothing measured changes nothing; nothing measured has no error to report
+        assertEquals(sd, direct.after(MappingUncertainty.NONE).cornerSigmaPx(), 0.0);
         assertTrue(Double.isNaN(MappingUncertainty.NONE.cornerSigmaPx()));
     }
 }

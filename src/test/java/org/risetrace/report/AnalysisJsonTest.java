@@ -80,7 +80,7 @@ class AnalysisJsonTest {
         // a one-constant part: one term, and the test that kept it
         JsonNode single = null;
         for (JsonNode p : root.get("parts")) if (p.get("fit").path("model").asText().equals("single")) single = p;
-        assertTrue(single != null);
+        org.junit.jupiter.api.Assertions.assertNotNull(single, "the demo has a part fitted with one time constant");
         assertEquals(1, single.get("fit").get("terms").size());
         assertTrue(single.get("fit").get("selection").asText().startsWith("one time constant"));
     }

@@ -5,6 +5,7 @@ import org.junit.jupiter.api.Test;
 import java.util.Locale;
 import java.util.Set;
 
+import static org.junit.jupiter.api.Assertions.assertArrayEquals;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertFalse;
 import static org.junit.jupiter.api.Assertions.assertTrue;
@@ -12,7 +13,8 @@ import static org.junit.jupiter.api.Assertions.assertTrue;
 /**
  * The colour maps against colour science computed here, independently of the code that built them:
  * sRGB decoding per IEC 61966-2-1, relative luminance from the sRGB (ITU-R BT.709) primaries, CIE 1976 L* per
- * CIE 15:2004, colour-vision deficiency per Machado, Oliveira and Fernandes (2009), greyscale luma per ITU-R BT.601.
+ * CIE 15:2004, colour-vision deficiency per Machado, Oliveira and Fernandes (2009), greyscale luma per ITU-R BT.601;
+ * CIELAB cross-checked with OpenCV's conversion, CIE94 from hue angles (not the identity the map builder uses).
  */
 class ColourMapsTest {
     /** Samples along each map: 16 equal steps, as a colour scale legend is read. */
@@ -95,13 +97,64 @@ class ColourMapsTest {
         return new double[]{116 * fy - 16, 500 * (fx - fy), 200 * (fy - fz)};
     }
 
-    /** CIE94 colour difference, CIE 116-1995, graphic-arts weights (kL = kC = kH = 1, K1 = 0.045, K2 = 0.015). */
+    /**
+     * CIE94 colour difference, CIE 116-1995, graphic-arts weights (kL = kC = kH = 1, K1 = 0.045, K2 = 0.015), with the
+     * hue difference from the hue angles, Delta H* = 2 sqrt(C1 C2) sin(Delta h / 2) (CIE 15:2004), not from the
+     * identity Delta H^2 = Delta a^2 + Delta b^2 - Delta C^2 that the code building the maps uses.
+     */
     private static double deltaE94(double[] p, double[] q) {
         double c1 = Math.hypot(p[1], p[2]), c2 = Math.hypot(q[1], q[2]);
-        double dl = p[0] - q[0], dc = c1 - c2, da = p[1] - q[1], db = p[2] - q[2];
-        double dh2 = Math.max(0, da * da + db * db - dc * dc);
+        double dh = Math.atan2(p[2], p[1]) - Math.atan2(q[2], q[1]);
+        double bigDh = 2 * Math.sqrt(c1 * c2) * Math.sin(dh / 2);
         double sc = 1 + 0.045 * c1, sh = 1 + 0.015 * c1;
-        return Math.sqrt(dl * dl + dc * dc / (sc * sc) + dh2 / (sh * sh));
+        return Math.sqrt(Math.pow(p[0] - q[0], 2) + Math.pow((c1 - c2) / sc, 2) + Math.pow(bigDh / sh, 2));
+    }
+
+    @Test
+    void labOfEveryTableColourAgreesWithOpenCv() {
+        // reference: OpenCV 4.9 (org.openpnp:opencv) cvtColor RGB2Lab on float sRGB, which decodes the sRGB curve
+        // and uses D65; its white point and matrix differ from IEC 61966-2-1's in the fourth digit, it interpolates
+        // the curve and its float a*, b* come in steps of 1/64: measured worst difference 0.26 Delta E*ab over both
+        // tables. Bound 0.4, far under the 1-unit steps the checks here rely on (a missing sRGB decoding or a wrong
+        // white point moves colours by several units)
+        nu.pattern.OpenCV.loadLocally();
+        for (ColourMaps map : ColourMaps.values()) {
+            int[] table = map.table();
+            org.opencv.core.Mat rgb = new org.opencv.core.Mat(1, table.length, org.opencv.core.CvType.CV_32FC3);
+            float[] px = new float[3 * table.length];
+            for (int i = 0; i < table.length; i++) {
+                px[3 * i] = (table[i] >> 16 & 0xff) / 255f;
+                px[3 * i + 1] = (table[i] >> 8 & 0xff) / 255f;
+                px[3 * i + 2] = (table[i] & 0xff) / 255f;
+            }
+            rgb.put(0, 0, px);
+            org.opencv.core.Mat out = new org.opencv.core.Mat();
+            org.opencv.imgproc.Imgproc.cvtColor(rgb, out, org.opencv.imgproc.Imgproc.COLOR_RGB2Lab);
+            float[] ref = new float[3 * table.length];
+            out.get(0, 0, ref);
+            for (int i = 0; i < table.length; i++) {
+                double[] ours = lab(table[i]);
+                double de = Math.sqrt(Math.pow(ours[0] - ref[3 * i], 2) + Math.pow(ours[1] - ref[3 * i + 1], 2)
+                        + Math.pow(ours[2] - ref[3 * i + 2], 2));
+                assertTrue(de < 0.4, map + " entry " + i + ": " + java.util.Arrays.toString(ours) + " vs OpenCV "
+                        + ref[3 * i] + ", " + ref[3 * i + 1] + ", " + ref[3 * i + 2]);
+            }
+        }
+        // and the sRGB primaries' published CIELAB (D65): red 53.24, 80.09, 67.20; blue 32.30, 79.19, -107.86
+        // (from memory; the 4-digit IEC matrix used here moves them by up to 0.02)
+        assertArrayEquals(new double[]{53.24, 80.09, 67.20}, lab(0xff0000), 0.05);
+        assertArrayEquals(new double[]{32.30, 79.19, -107.86}, lab(0x0000ff), 0.05);
+    }
+
+    @Test
+    void cie94ReducesToItsClosedForms() {
+        // greys have no chroma: Delta E94 is the lightness difference; two colours of equal L* and chroma 30 a
+        // quarter turn apart: Delta H* = 2 x 30 x sin(45 deg) = 42.43, divided by S_H = 1 + 0.015 x 30 = 1.45 gives
+        // 29.26 (CIE 116-1995, hand arithmetic)
+        assertEquals(12.5, deltaE94(new double[]{62.5, 0, 0}, new double[]{50, 0, 0}), 1e-12);
+        assertEquals(29.26, deltaE94(new double[]{50, 30, 0}, new double[]{50, 0, 30}), 0.01);
+        // equal hue, chroma 40 against 30: Delta C / S_C = 10 / (1 + 0.045 x 40) = 3.571
+        assertEquals(3.571, deltaE94(new double[]{50, 40, 0}, new double[]{50, 30, 0}), 0.001);
     }
 
     @Test

@@ -139,8 +139,17 @@ class ReportHtmlTest {
         JFreeChart chart = Plots.mapChart(new Plots.Grid(w, h, 10.0, v, 100, 50),
                 new Plots.Shading(ColourMaps.EMBER, 0, 3, false, "K"), List.of(), null);
         org.jfree.data.xy.XYZDataset data = (org.jfree.data.xy.XYZDataset) chart.getXYPlot().getDataset();
-        int bin = (int) Math.ceil(w / (double) Plots.MAX_BLOCKS_ACROSS);  // 5 px per block
-        assertEquals(((w + bin - 1) / bin) * ((h + bin - 1) / bin), data.getItemCount(0));
+        // by hand: whole-pixel square blocks, the smallest that keep 1000 px within 240 across: 4 px would give 250,
+        // so 5 px, 200 blocks across and 100 down
+        java.util.Set<Double> xs = new java.util.TreeSet<>(), ys = new java.util.TreeSet<>();
+        for (int k = 0; k < data.getItemCount(0); k++) {
+            xs.add(data.getXValue(0, k));
+            ys.add(data.getYValue(0, k));
+        }
+        assertEquals(200, xs.size());
+        assertEquals(100, ys.size());
+        assertEquals(200 * 100, data.getItemCount(0));
+        assertTrue(xs.size() <= Plots.MAX_BLOCKS_ACROSS);
         // a bin's value is the mean of its pixels: the bins left of x = 50 mm hold 1 K, right of it 3 K
         for (int k = 0; k < data.getItemCount(0); k++) {
             double x = data.getXValue(0, k), z = data.getZValue(0, k);

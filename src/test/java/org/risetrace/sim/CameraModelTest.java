@@ -73,7 +73,6 @@ class CameraModelTest {
 
     @Test
     void frontalPoseScalesByFocalOverDistance() {
-        Scenario s = Scenarios.small();
         Scenario.CameraSpec c = new Scenario.CameraSpec(160, 128, 400, 250, null, null, null, null, null, null, null,
                 null, null, null, null, null, null, null, null, null);
         Homography h = CameraModel.basePose(c, 60, 40);
@@ -83,7 +82,6 @@ class CameraModelTest {
         assertEquals(63.5 - 20 * pxPerMm, corners[0][1], 1e-9);
         assertEquals(79.5 + 30 * pxPerMm, corners[2][0], 1e-9);
         assertEquals(63.5 + 20 * pxPerMm, corners[2][1], 1e-9);
-        assertEquals("small", s.name());
     }
 
     /**
@@ -143,7 +141,6 @@ class CameraModelTest {
         for (int i = 0; i < w * h; i++) var += (sum2[i] - sum[i] * sum[i] / n) / (n - 1);
         double measured = Math.sqrt(var / (w * h));
         assertEquals(netd, measured, 0.1 * netd);
-        assertTrue(measured > 0);
     }
 
     @Test

@@ -28,7 +28,13 @@ class SimulatorTest {
         Scenario s = Scenarios.small();
         SimulationOutput out = Simulator.run(s, dir);
         assertEquals(30, out.frameFiles().size());
-        for (Path f : out.frameFiles()) assertTrue(Files.size(f) > 0, f.toString());
+        for (Path f : out.frameFiles()) {
+            // each frame a 16-bit grey PNG of the camera's size, as the JDK's decoder reads it
+            java.awt.image.BufferedImage img = javax.imageio.ImageIO.read(f.toFile());
+            assertEquals(s.camera().width(), img.getWidth(), f.toString());
+            assertEquals(s.camera().height(), img.getHeight(), f.toString());
+            assertEquals(16, img.getColorModel().getComponentSize(0), f.toString());
+        }
         Board board = Scenario.JSON.readValue(out.boardFile().toFile(), Board.class);
         Sidecar sidecar = Scenario.JSON.readValue(out.sidecarFile().toFile(), Sidecar.class);
         Truth truth = Truth.read(out.truthFile());

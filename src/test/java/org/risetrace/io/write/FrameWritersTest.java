@@ -93,7 +93,10 @@ class FrameWritersTest {
             double expected = Math.max(lo, Math.min(hi, t[i]));
             assertEquals(expected, c, step / 2 + 1e-6);
         }
-        assertEquals(w * h, FrameWriters.grey8(w, h, new byte[w * h]).getWidth() * h);
+        BufferedImage g8 = FrameWriters.grey8(w, h, new byte[w * h]);
+        assertEquals(w, g8.getWidth());
+        assertEquals(h, g8.getHeight());
+        assertEquals(BufferedImage.TYPE_BYTE_GRAY, g8.getType());
         Files.deleteIfExists(f);
     }
 
@@ -105,6 +108,16 @@ class FrameWritersTest {
         FrameWriters.write(f, FrameEncoding.F32_TIFF, w, h, t, null);
         java.time.Instant when = java.time.Instant.parse("2026-11-30T14:05:30.250Z");
         FrameWriters.addExifTime(f, when);
+        // the tags as an independent reader (Apache Commons Imaging) finds them: EXIF's "YYYY:MM:DD HH:MM:SS" form
+        // and the milliseconds as SubSecTimeOriginal (CIPA DC-008, Exif 2.3, DateTimeOriginal and SubSecTimeOriginal)
+        org.apache.commons.imaging.formats.tiff.TiffImageMetadata md =
+                (org.apache.commons.imaging.formats.tiff.TiffImageMetadata) org.apache.commons.imaging.Imaging.getMetadata(f.toFile());
+        assertEquals("2026:11:30 14:05:30", md.findField(
+                org.apache.commons.imaging.formats.tiff.constants.ExifTagConstants.EXIF_TAG_DATE_TIME_ORIGINAL, true)
+                .getStringValue().trim());
+        assertEquals("250", md.findField(
+                org.apache.commons.imaging.formats.tiff.constants.ExifTagConstants.EXIF_TAG_SUB_SEC_TIME_ORIGINAL, true)
+                .getStringValue().trim());
         // the import stage's EXIF reader (DateTimeOriginal + SubSecTimeOriginal, CIPA DC-008)
         org.risetrace.io.CaptureTimes.CaptureTime ct = org.risetrace.io.CaptureTimes.read(f);
         assertEquals(when, ct.instant());

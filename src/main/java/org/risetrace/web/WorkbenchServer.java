@@ -45,6 +45,8 @@ public final class WorkbenchServer implements AutoCloseable {
     /** Largest uploaded frame file by default (a 640 x 512 float TIFF is 1.3 MB; generous for larger cameras). */
     public static final long DEFAULT_MAX_UPLOAD_BYTES = 64L << 20;
 
+    /** A refused body up to this size is read to its end before the 413 reply (see Request.drain). */
+    static final long DRAIN_BYTES = 16L << 20;
     static final String SESSION_COOKIE = "risetrace_session";
     static final ObjectMapper JSON = new ObjectMapper();
 
@@ -324,7 +326,10 @@ public final class WorkbenchServer implements AutoCloseable {
                 } catch (NumberFormatException e) {
                     throw WebError.badRequest("malformed Content-Length");
                 }
-                if (n > limit) throw new WebError(413, "request body of " + n + " bytes is over the limit of " + limit + " bytes");
+                if (n > limit) {
+                    drain(ex.getRequestBody(), n);
+                    throw new WebError(413, "request body of " + n + " bytes is over the limit of " + limit + " bytes");
+                }
             }
             InputStream in = ex.getRequestBody();
             ByteArrayOutputStream out = new ByteArrayOutputStream();
@@ -332,10 +337,24 @@ public final class WorkbenchServer implements AutoCloseable {
             long total = 0;
             for (int r; (r = in.read(buf)) > 0; ) {
                 total += r;
-                if (total > limit) throw new WebError(413, "request body over the limit of " + limit + " bytes");
+                if (total > limit) {
+                    drain(in, Long.MAX_VALUE);
+                    throw new WebError(413, "request body over the limit of " + limit + " bytes");
+                }
                 out.write(buf, 0, r);
             }
             return out.toByteArray();
+        }
+
+        /**
+         * Reads and drops what is left of a refused body (at most {@link #DRAIN_BYTES}), so the client reads the
+         * 413 reply instead of a connection reset; a larger body is cut off with the connection.
+         */
+        private static void drain(InputStream in, long declared) throws IOException {
+            if (declared > DRAIN_BYTES) return;
+            byte[] buf = new byte[1 << 16];
+            long total = 0;
+            for (int r; (r = in.read(buf)) > 0 && total <= DRAIN_BYTES; ) total += r;
         }
     }
 }

@@ -622,12 +622,14 @@ function wireBoardCanvas() {
 
 function wirePartEditor() {
   const bind = (id, key, num) => {
-    $(id).addEventListener('input', () => {
+    const update = () => {
       const p = S.parts[S.selected]; if (!p) return;
       const v = $(id).value;
       if (num) { const n = parseFloat(v); if (Number.isFinite(n)) p[key] = n; } else p[key] = v.trim();
       partsChanged(true);
-    });
+    };
+    $(id).addEventListener('input', update);
+    $(id).addEventListener('change', update);
   };
   bind('part-ref', 'ref'); bind('part-kind', 'kind'); bind('part-material', 'material');
   bind('part-x', 'x_mm', true); bind('part-y', 'y_mm', true); bind('part-w', 'w_mm', true); bind('part-h', 'h_mm', true);

@@ -722,6 +722,14 @@ async function analyse() {
     }
     $('analyse-status').textContent = 'done: results in ' + S.result.output;
     const a = $('report-link'); a.href = '/api/job/report?' + q({ id: job }); a.hidden = false;
+    // off loopback a plain link would lack the access token: fetch the report with it and open a copy
+    a.onclick = S.token ? async (ev) => {
+      ev.preventDefault();
+      try {
+        const res = await api('GET', a.getAttribute('href'), undefined, true);
+        window.open(URL.createObjectURL(new Blob([await res.text()], { type: 'text/html' })), '_blank', 'noopener');
+      } catch (e) { show(e.message); }
+    } : null;
     drawResults();
   } catch (e) {
     $('analyse-status').textContent = 'failed: ' + e.message; show(e.message);
@@ -739,6 +747,9 @@ function drawResults() {
   const r = S.result; if (!r || S.tab !== 'analyse') return;
   const doc = r.analysis;
   verdictInto('verdict', 'verdict', doc.verdict);
+  $('verdict-mode').textContent = doc.mode === 'lock-in'
+    ? 'Lock-in analysis (periodic injection in series.json); the table ranks the same frames by their steady rise.'
+    : 'Steady analysis: parts ranked by their initial rate of rise.';
   const tb = $('ranking').tBodies[0]; tb.innerHTML = '';
   for (const p of doc.parts || []) {
     const tr = tb.insertRow(); if (doc.verdict.ref === p.ref) tr.className = 'leader';

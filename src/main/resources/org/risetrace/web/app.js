@@ -311,7 +311,14 @@ async function gotoFrame(i) {
   S.frameIndex = i; $('frame-slider').value = i;
   const f = S.series.frames[i];
   $('frame-label').textContent = f.name + ' \u00b7 t = ' + fmt(f.t_s, 2) + ' s \u00b7 ' + (i + 1) + '/' + S.series.frames.length;
-  for (const [k, li] of [...$('frame-list').children].entries()) li.setAttribute('aria-current', k === i);
+  for (const [k, li] of [...$('frame-list').children].entries()) {
+    li.setAttribute('aria-current', k === i);
+    if (k === i) { // keep the current frame visible inside the list only (not the whole panel)
+      const ol = li.parentElement;
+      if (li.offsetTop < ol.scrollTop) ol.scrollTop = li.offsetTop;
+      else if (li.offsetTop + li.offsetHeight > ol.scrollTop + ol.clientHeight) ol.scrollTop = li.offsetTop + li.offsetHeight - ol.clientHeight;
+    }
+  }
   try {
     S.frame = await loadFrame(i);
     if (S.frameIndex === i) drawFrame();
@@ -689,6 +696,7 @@ async function importPlacement() {
 async function saveBoard() {
   if (!S.series) { show('open a series first'); return; }
   if (S.corners.length < 4) { show('mark the four corners first (step 2)'); return; }
+  if (!(S.boardW > 0 && S.boardH > 0)) { show('type the board\u2019s width and height in mm first (step 2)'); return; }
   try {
     const r = await api('POST', '/api/board?' + seriesQuery(), boardDoc(true));
     const msg = 'Saved ' + r.saved + ' (' + r.parts + ' parts)' + (r.backup ? '; the previous file is kept as ' + r.backup : '') + '.';

@@ -119,6 +119,36 @@ class WorkbenchBrowserTest {
         new Select(driver.findElement(By.id("part-material"))).selectByValue(material);
     }
 
+    /**
+     * Every visible piece of text on the step reaches a contrast ratio of 4.5:1 against the background it sits on
+     * (WCAG 2.1, success criterion 1.4.3, with the relative luminance and contrast ratio defined there).
+     */
+    static void assertReadableContrast(String step) {
+        driver.findElement(By.id("tab-btn-" + step)).click();
+        Object worst = js("""
+                const lin = (c) => { c /= 255; return c <= 0.04045 ? c / 12.92 : Math.pow((c + 0.055) / 1.055, 2.4); };
+                const lum = (rgb) => 0.2126 * lin(rgb[0]) + 0.7152 * lin(rgb[1]) + 0.0722 * lin(rgb[2]);
+                const parse = (s) => s.match(/[0-9.]+/g).map(Number);
+                const bg = (el) => { for (; el; el = el.parentElement) { const c = parse(getComputedStyle(el).backgroundColor);
+                    if (c.length < 4 || c[3] > 0.5) return c; } return [255, 255, 255]; };
+                let worst = { ratio: 99 };
+                for (const el of document.querySelectorAll('body *')) {
+                  if (!el.offsetParent || ['CANVAS', 'SCRIPT', 'OPTION', 'PROGRESS'].includes(el.tagName) || el.disabled) continue;
+                  const own = [...el.childNodes].some((n) => n.nodeType === 3 && n.textContent.trim());
+                  if (!own) continue;
+                  const fg = parse(getComputedStyle(el).color), b = bg(el);
+                  const l1 = lum(fg), l2 = lum(b), ratio = (Math.max(l1, l2) + 0.05) / (Math.min(l1, l2) + 0.05);
+                  if (ratio < worst.ratio) worst = { ratio, text: el.textContent.trim().slice(0, 40), fg: fg.join(','), bg: b.join(',') };
+                }
+                return JSON.stringify(worst);""");
+        try {
+            JsonNode w = WorkbenchFixture.JSON.readTree(String.valueOf(worst));
+            assertTrue(w.get("ratio").asDouble() >= 4.5, step + ": lowest text contrast " + w);
+        } catch (com.fasterxml.jackson.core.JsonProcessingException e) {
+            throw new AssertionError(e);
+        }
+    }
+
     @Test
     void aUserMarksTheDemoBoardAnalysesItAndReadsTheVerdict() throws Exception {
         driver.get(wb.base().replace("127.0.0.1", "localhost") + "/");
@@ -139,6 +169,7 @@ class WorkbenchBrowserTest {
         int[] last = offset(frame, (List<?>) js("return window.rt.frameToCanvas(150, 120);"));
         new Actions(driver).moveToElement(frame, last[0], last[1]).perform(); // a temperature reading in the shot
         shot("2-outline-1280x800");
+        assertReadableContrast("outline");
         // 3. two parts on the rectified board: the phase-B switches (positions from the bundled board.json)
         driver.findElement(By.id("tab-btn-parts")).click();
         WebElement board = driver.findElement(By.id("board-canvas"));
@@ -193,6 +224,8 @@ class WorkbenchBrowserTest {
         assertTrue(driver.findElement(By.id("safety-analyse")).getText().contains("Disconnect batteries and mains"));
         assertTrue(driver.findElement(By.id("report-link")).isDisplayed());
 
+        assertReadableContrast("analyse");
+
         // 5. compare the first and the last frame
         driver.findElement(By.id("tab-btn-compare")).click();
         driver.findElement(By.id("compare-btn")).click();
@@ -204,7 +237,7 @@ class WorkbenchBrowserTest {
         for (Dimension d : new Dimension[]{new Dimension(820, 1180), new Dimension(1180, 820)}) {
             driver.manage().window().setSize(d);
             String size = d.getWidth() + "x" + d.getHeight();
-            for (String tab : new String[]{"outline", "parts", "analyse"}) {
+            for (String tab : new String[]{"open", "outline", "parts", "analyse", "compare"}) {
                 driver.findElement(By.id("tab-btn-" + tab)).click();
                 Thread.sleep(250);
                 shot("tablet-" + tab + "-" + size);

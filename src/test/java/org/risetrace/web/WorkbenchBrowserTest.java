@@ -233,6 +233,27 @@ class WorkbenchBrowserTest {
         assertEquals(2, driver.findElements(By.cssSelector("#compare-table tbody tr")).size());
         shot("5-compare-1280x800");
 
+        // a placement list through the page: the core's import gives the fixture's three top-side parts (Q4, C17, U2;
+        // R9 is on the bottom); Q4 is marked already and stays as the user drew it
+        driver.findElement(By.id("tab-btn-parts")).click();
+        driver.findElement(By.id("placement-file")).sendKeys(Path.of("src/test/resources/fixtures/board/placement-mm.csv")
+                .toAbsolutePath().toString());
+        waiting(20).until(d -> d.findElement(By.id("placement-status")).getText().contains("parts added"));
+        assertTrue(driver.findElement(By.id("placement-status")).getText().startsWith("2 parts added, 1 already marked"));
+        assertEquals(2 + 2, driver.findElements(By.cssSelector("#part-list li")).size(),
+                driver.findElement(By.id("placement-status")).getText());
+        // an upload through the page lands under the root, byte for byte
+        driver.findElement(By.id("tab-btn-open")).click();
+        WebElement folder = driver.findElement(By.id("upload-folder"));
+        folder.clear();
+        folder.sendKeys("bench-upload");
+        Path frame0 = root.resolve("phase-short/f0001.png");
+        driver.findElement(By.id("upload-files")).sendKeys(frame0.toAbsolutePath().toString());
+        driver.findElement(By.id("upload-btn")).click();
+        waiting(20).until(d -> d.findElement(By.id("upload-status")).getText().contains("uploaded into"));
+        assertEquals(java.util.Arrays.toString(Files.readAllBytes(frame0)).hashCode(),
+                java.util.Arrays.toString(Files.readAllBytes(root.resolve("bench-upload/f0001.png"))).hashCode());
+
         // the same steps at tablet size, portrait and landscape (screenshots for a person to look at)
         for (Dimension d : new Dimension[]{new Dimension(820, 1180), new Dimension(1180, 820)}) {
             driver.manage().window().setSize(d);
@@ -247,5 +268,21 @@ class WorkbenchBrowserTest {
         driver.manage().window().setSize(new Dimension(1280, 800));
         driver.findElement(By.tagName("body")).sendKeys("2");
         assertEquals("true", driver.findElement(By.id("tab-btn-outline")).getAttribute("aria-selected"), "the 2 key selects the outline step");
+    }
+
+    @Test
+    void offLoopbackThePageAsksForTheAccessToken(@TempDir Path r2) throws Exception {
+        WorkbenchFixture.copySeries("before-after", r2, true);
+        try (WorkbenchFixture open = new WorkbenchFixture(r2, InetAddress.getByName("0.0.0.0"), 1 << 20)) {
+            driver.get(open.base() + "/");
+            WebElement input = waiting(20).until(d -> {
+                WebElement e = d.findElement(By.id("token-input"));
+                return e.isDisplayed() ? e : null;
+            });
+            assertEquals(0, driver.findElements(By.cssSelector("#folder-table tbody tr")).size(), "nothing listed without the token");
+            input.sendKeys(open.server.accessToken(), Keys.ENTER);
+            waiting(20).until(d -> d.findElements(By.cssSelector("button[data-path='before-after']")).size() == 1);
+            shot("6-token-accepted");
+        }
     }
 }

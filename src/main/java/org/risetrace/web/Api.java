@@ -360,13 +360,18 @@ final class Api {
         String side = r.param("side") == null ? "top" : r.param("side");
         if (!Set.of("mm", "mil").contains(units)) throw WebError.badRequest("units must be mm or mil");
         if (!Set.of("top", "bottom", "all").contains(side)) throw WebError.badRequest("side must be top, bottom or all");
+        // the board size the page already has: the CAD origin is then its bottom-left corner (y up), as with the
+        // CLI's --size-mm; without it the core guesses the size from the parts' extent
+        double[] size = null;
+        if (r.param("w_mm") != null || r.param("h_mm") != null)
+            size = new double[]{sizeParam(r, "w_mm"), sizeParam(r, "h_mm")};
         byte[] csv = r.body(WorkbenchServer.MAX_DOCUMENT_BYTES);
         Path tmp = Files.createTempFile(scratch, "placement", ".csv");
         try {
             Files.write(tmp, csv);
             PlacementImport.Options d = PlacementImport.Options.defaults();
             PlacementImport.Options o = new PlacementImport.Options(null, null, null, null, null, units, null, null,
-                    d.yUp(), side, Map.of(), null, null);
+                    d.yUp(), side, Map.of(), size, null);
             PlacementImport.Result res = PlacementImport.read(tmp, o);
             Map<String, Object> m = new LinkedHashMap<>();
             m.put("size_mm", res.board().sizeMm());
@@ -380,6 +385,19 @@ final class Api {
         } finally {
             Files.deleteIfExists(tmp);
         }
+    }
+
+    private static double sizeParam(WorkbenchServer.Request r, String name) {
+        String v = r.required(name);
+        double d;
+        try {
+            d = Double.parseDouble(v);
+        } catch (NumberFormatException e) {
+            throw WebError.badRequest("'" + name + "' must be a number of millimetres");
+        }
+        if (!(Double.isFinite(d) && d > 0 && d <= BoardFile.MAX_SIZE_MM))
+            throw WebError.badRequest("'" + name + "' must be more than 0 and at most " + (int) BoardFile.MAX_SIZE_MM + " mm");
+        return d;
     }
 
     // ------------------------------------------------------------------------------------------ analyse

@@ -680,7 +680,9 @@ function renderPartList() {
 async function importPlacement() {
   const f = $('placement-file').files[0]; if (!f) return;
   try {
-    const r = await api('POST', '/api/placement?' + q({ units: $('placement-units').value, side: 'top' }), await f.text());
+    const params = { units: $('placement-units').value, side: 'top' };
+    if (S.boardW > 0 && S.boardH > 0) { params.w_mm = S.boardW; params.h_mm = S.boardH; }
+    const r = await api('POST', '/api/placement?' + q(params), await f.text());
     let added = 0, skipped = 0;
     for (const p of r.parts) {
       if (S.parts.some((o) => o.ref === p.ref)) { skipped++; continue; }

@@ -330,6 +330,18 @@ class WorkbenchApiTest {
             assertEquals(direct.partsOrEmpty().get(i).ref(), parts.get(i).get("ref").asText());
             assertEquals(direct.partsOrEmpty().get(i).xMm(), parts.get(i).get("x_mm").asDouble(), 0);
         }
+        // with the board size the page knows, as the CLI's --size-mm: y measured up from the bottom edge
+        HttpResponse<String> sized = wb.post("/api/placement?units=mm&w_mm=100&h_mm=70", Files.readAllBytes(csv));
+        assertEquals(200, sized.statusCode(), sized.body());
+        JsonNode sizedParts = WorkbenchFixture.JSON.readTree(sized.body()).get("parts");
+        PlacementImport.Options d = PlacementImport.Options.defaults();
+        Board direct100 = PlacementImport.read(csv, new PlacementImport.Options(null, null, null, null, null, "mm", null, null,
+                d.yUp(), "top", java.util.Map.of(), new double[]{100, 70}, null)).board();
+        for (int i = 0; i < sizedParts.size(); i++)
+            assertEquals(direct100.partsOrEmpty().get(i).yMm(), sizedParts.get(i).get("y_mm").asDouble(), 0);
+        assertEquals(70 - 38.0, sizedParts.get(0).get("y_mm").asDouble(), 1e-9); // Q4 at CAD y 38 mm (fixture)
+        refused(wb.post("/api/placement?units=mm&w_mm=0&h_mm=70", "a,b"), 400);
+        refused(wb.post("/api/placement?units=mm&w_mm=1e9&h_mm=70", "a,b"), 400);
         refused(wb.post("/api/placement?units=inch", "a,b"), 400);
         refused(wb.post("/api/placement?units=mm", "no header here\n1,2,3"), 422);
     }

@@ -580,7 +580,11 @@ final class Api {
         Path tmp = Files.createTempFile(folder, ".upload-", ".tmp");
         try {
             Files.write(tmp, body);
-            Files.move(tmp, target, StandardCopyOption.ATOMIC_MOVE);
+            try {
+                Files.move(tmp, target); // no REPLACE_EXISTING: a file that appeared meanwhile is kept
+            } catch (java.nio.file.FileAlreadyExistsException e) {
+                throw new WebError(409, "'" + name + "' already exists in '" + folderRel + "'; nothing was replaced");
+            }
         } finally {
             Files.deleteIfExists(tmp);
         }

@@ -18,6 +18,7 @@ const S = {
   parts: [], selected: -1, boardView: { k: 1, ox: 0, oy: 0 },
   job: null, result: null, riseMap: null,
   tab: 'open',
+  dirty: false,            // outline or parts changed since the last save
 };
 window.rt = S; // for the browser test and for curious users: the page's state
 
@@ -272,6 +273,7 @@ async function openSeries(root, path) {
     if (notes.length) show(notes.join(' \u2014 ')); else show('opened ' + s.name, true);
     cornersChangedQuiet();
     renderPartList();
+    S.dirty = false;
     setTab('outline');
     await gotoFrame(S.frameIndex);
     if (S.corners.length === 4) refreshRect();
@@ -476,6 +478,7 @@ function cornersChangedQuiet() {
 
 let rectTimer = null;
 function cornersChanged() {
+  S.dirty = true;
   cornersChangedQuiet(); drawFrame();
   clearTimeout(rectTimer); rectTimer = setTimeout(refreshRect, 120);
 }
@@ -661,6 +664,7 @@ function deletePart() {
   S.parts.splice(S.selected, 1); S.selected = Math.min(S.selected, S.parts.length - 1); partsChanged();
 }
 function partsChanged(fromEditor) {
+  S.dirty = true;
   if (!fromEditor) fillEditor();
   renderPartList(); drawBoard();
   $('save-status').textContent = 'Unsaved changes.';
@@ -702,7 +706,7 @@ async function saveBoard() {
   try {
     const r = await api('POST', '/api/board?' + seriesQuery(), boardDoc(true));
     const msg = 'Saved ' + r.saved + ' (' + r.parts + ' parts)' + (r.backup ? '; the previous file is kept as ' + r.backup : '') + '.';
-    $('save-status').textContent = msg; show(msg, true);
+    $('save-status').textContent = msg; show(msg, true); S.dirty = false;
   } catch (e) { $('save-status').textContent = 'Not saved: ' + e.message; show('Not saved: ' + e.message); }
 }
 
@@ -710,6 +714,7 @@ async function saveBoard() {
 
 async function analyse() {
   if (!S.series) { show('open a series first'); return; }
+  if (S.dirty) { show('the outline or parts changed since the last save: save board.json first (Ctrl+S); the analysis reads the saved file'); return; }
   const btn = $('analyse-btn'), pr = $('analyse-progress');
   btn.disabled = true; pr.hidden = false; pr.removeAttribute('value');
   $('analyse-status').textContent = 'starting ...'; $('report-link').hidden = true;
@@ -831,6 +836,7 @@ function drawCurves() {
 
 async function compare() {
   if (!S.series) { show('open a series first'); return; }
+  if (S.dirty) { show('the outline or parts changed since the last save: save board.json first (Ctrl+S)'); return; }
   const before = +$('compare-before').value, after = +$('compare-after').value;
   $('compare-btn').disabled = true; $('compare-info').textContent = 'comparing ...';
   try {
@@ -854,3 +860,5 @@ async function compare() {
 }
 
 window.addEventListener('DOMContentLoaded', start);
+// marks are lost with the page: ask before leaving with unsaved ones
+window.addEventListener('beforeunload', (ev) => { if (S.dirty) { ev.preventDefault(); ev.returnValue = ''; } });

@@ -242,6 +242,11 @@ class WorkbenchBrowserTest {
         assertTrue(driver.findElement(By.id("placement-status")).getText().startsWith("2 parts added, 1 already marked"));
         assertEquals(2 + 2, driver.findElements(By.cssSelector("#part-list li")).size(),
                 driver.findElement(By.id("placement-status")).getText());
+        // unsaved marks are never analysed silently: the analysis reads the saved board.json
+        driver.findElement(By.id("tab-btn-analyse")).click();
+        driver.findElement(By.id("analyse-btn")).click();
+        waiting(10).until(d -> d.findElement(By.id("message")).getText().contains("save board.json first"));
+        js("window.rt.dirty = false;"); // the imported parts stay unsaved on purpose: no leave-page prompt later
         // an upload through the page lands under the root, byte for byte
         driver.findElement(By.id("tab-btn-open")).click();
         WebElement folder = driver.findElement(By.id("upload-folder"));

@@ -469,7 +469,7 @@ function cornersChangedQuiet() {
   const ol = $('corner-list'); ol.innerHTML = '';
   for (let k = 0; k < 4; k++) {
     const li = document.createElement('li'); const p = S.corners[k];
-    li.textContent = (k + 1) + ' ' + CORNER_NAMES[k] + ': ' + (p ? p[0].toFixed(1) + ', ' + p[1].toFixed(1) : '\u2013');
+    li.textContent = (k + 1) + ' ' + (CORNER_NAMES[k] + ':').padEnd(14, '\u00a0') + (p ? p[0].toFixed(1) + ', ' + p[1].toFixed(1) : '\u2013');
     if (!p) li.className = 'missing';
     ol.append(li);
   }

@@ -66,6 +66,10 @@ class WorkbenchBrowserTest {
         if (!present)
             System.err.println("WorkbenchBrowserTest SKIPPED: " + CHROMIUM + " or " + CHROMEDRIVER + " is missing "
                     + "(apt-get install -y chromium chromium-driver; .ci/run installs them)");
+        // CI sets RISETRACE_REQUIRE_BROWSER=1 after installing them: there the browser test must run, not skip
+        if (!present && "1".equals(System.getenv("RISETRACE_REQUIRE_BROWSER")))
+            throw new IllegalStateException("RISETRACE_REQUIRE_BROWSER=1 but " + CHROMIUM + " or " + CHROMEDRIVER
+                    + " is missing");
         assumeTrue(present, "chromium and chromedriver are not installed");
         WorkbenchFixture.copySeries("phase-short", root, false);
         wb = new WorkbenchFixture(root, InetAddress.getLoopbackAddress(), WorkbenchServer.DEFAULT_MAX_UPLOAD_BYTES);

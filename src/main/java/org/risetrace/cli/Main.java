@@ -22,6 +22,7 @@ import picocli.CommandLine.Command;
                 CalibrateCommand.class,
                 PlanCommand.class, ReadingsCommand.class,
                 BatchCommand.class,
+                CaseCommand.class,
                 CommandLine.HelpCommand.class})
 public final class Main implements Runnable {
     public static final int EXIT_OK = 0;

@@ -565,10 +565,23 @@ public final class Archive implements AutoCloseable {
             throw new ArchiveException(src, "the stored " + what + " no longer has its SHA-256", "run 'risetrace case verify'");
     }
 
+    /** A file name without a folder: no '/', '\\', control character, and not '.' or '..'. */
+    static boolean plainName(String n) {
+        if (n == null || n.isEmpty() || n.length() > 255 || n.equals(".") || n.equals("..")) return false;
+        for (int i = 0; i < n.length(); i++) {
+            char ch = n.charAt(i);
+            if (ch == '/' || ch == '\\' || Character.isISOControl(ch)) return false;
+        }
+        return true;
+    }
+
     /** Writes a stored series into {@code dir} under the original file names (each checked on the way). */
     Path materialise(SeriesRecord s, Path dir) throws IOException {
         Path folder = Files.createDirectories(dir.resolve(s.name()));
-        for (StoredFile f : s.files()) copyOut(f.sha256(), folder.resolve(f.fileName()), f.fileName());
+        for (StoredFile f : s.files()) {
+            if (!plainName(f.fileName())) throw new ArchiveException(null, "stored file name '" + f.fileName() + "' is not plain");
+            copyOut(f.sha256(), folder.resolve(f.fileName()), f.fileName());
+        }
         return folder;
     }
 

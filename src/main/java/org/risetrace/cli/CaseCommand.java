@@ -14,6 +14,8 @@ import picocli.CommandLine.Command;
                 CaseStatusCommand.class,
                 CaseAddSeriesCommand.class,
                 CaseAnalyseCommand.class,
+                CaseExportCommand.class,
+                CaseImportCommand.class,
                 CaseVerifyCommand.class})
 public final class CaseCommand implements Runnable {
     @CommandLine.Spec

@@ -14,6 +14,7 @@ import picocli.CommandLine.Command;
                 CaseStatusCommand.class,
                 CaseAddSeriesCommand.class,
                 CaseAnalyseCommand.class,
+                CaseReportCommand.class,
                 CaseExportCommand.class,
                 CaseImportCommand.class,
                 CaseVerifyCommand.class})

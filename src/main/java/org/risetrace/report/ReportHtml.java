@@ -45,7 +45,7 @@ public final class ReportHtml {
     /** How many of the leading parts the rise-versus-time plot shows. */
     static final int CURVES_SHOWN = 5;
 
-    static final String SAFETY_TEXT =
+    public static final String SAFETY_TEXT =
             "Disconnect batteries and mains from the board before injecting. "
             + "Set the bench supply's current limit before connecting it, and start low. "
             + "Never inject between a core rail and ground above that rail's nominal voltage. "

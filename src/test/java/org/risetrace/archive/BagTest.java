@@ -47,7 +47,7 @@ class BagTest {
         source = shared.resolve("archive");
         try (Archive a = Archive.open(ArchiveSettings.sqlite(source), "tess")) {
             a.createCase(new Archive.NewCase("C-7", "ticket 7", "sensor board DB-12 rev B", "SN 7", "no boot", "tess"));
-            a.addSeries("C-7", Fixtures.series(shared.resolve("bench 1"), 31), "bench-1", null);
+            a.addSeries("C-7", Fixtures.series(shared.resolve("bench 1"), 11), "bench-1", null);
             CaseAnalysis.analyse(a, "C-7", "bench-1", AnalysisOptions.defaults(), CaseAnalysis.Mode.AUTO, 2, Analyzer.Progress.NONE);
             folderBag = shared.resolve("bags/C-7");
             zipBag = shared.resolve("bags/C-7.zip");

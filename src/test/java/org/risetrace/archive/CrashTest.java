@@ -49,17 +49,40 @@ class CrashTest {
         }
     }
 
+    /** Both databases at once, each in its own thread (the parent mostly waits on its children). */
     @Test
-    void killedIngestsLeaveWholeSeriesOrNoneOnSqlite() throws Exception {
-        run(null);
+    void killedIngestsLeaveWholeSeriesOrNoneOnSqliteAndOnPostgres() throws Exception {
+        PgServer.get();
+        java.util.concurrent.ExecutorService pool = java.util.concurrent.Executors.newFixedThreadPool(2);
+        try {
+            var sqlite = pool.submit(() -> new Loop(tmp.resolve("sqlite")).run(null));
+            var postgres = pool.submit(() -> new Loop(tmp.resolve("postgres")).run("postgres"));
+            unwrap(sqlite);
+            unwrap(postgres);
+        } finally {
+            pool.shutdownNow();
+        }
     }
 
-    @Test
-    void killedIngestsLeaveWholeSeriesOrNoneOnPostgres() throws Exception {
-        run("postgres");
+    private static void unwrap(java.util.concurrent.Future<?> f) throws Exception {
+        try {
+            f.get(10, TimeUnit.MINUTES);
+        } catch (java.util.concurrent.ExecutionException e) {
+            if (e.getCause() instanceof Error err) throw err;
+            throw (Exception) e.getCause();
+        }
     }
 
-    private void run(String which) throws Exception {
+    /** One database's kills. */
+    private static final class Loop {
+        private final Path tmp;
+        private boolean lastWasKill;
+
+        Loop(Path tmp) throws IOException {
+            this.tmp = Files.createDirectories(tmp);
+        }
+
+    Void run(String which) throws Exception {
         List<Path> sources = SOURCES;
         Map<String, List<String>> listing = LISTING;
         Random random = new Random(20261203L + (which == null ? 0 : 1));
@@ -113,9 +136,9 @@ class CrashTest {
             assertEquals(SERIES, a.show("C-K").series().size());
         }
         check(settings, listing, "after the last run");
+        return null;
     }
-
-    private boolean lastWasKill;
+    }
 
     private static List<String> lastCommand(String which, String db, ArchiveSettings settings, List<Path> sources) {
         List<String> cmd = new ArrayList<>(List.of(PostgresArchiveTest.java(), "-cp", System.getProperty("java.class.path"),

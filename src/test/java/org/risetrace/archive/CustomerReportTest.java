@@ -37,7 +37,7 @@ class CustomerReportTest {
         try (Archive a = Archive.open(ArchiveSettings.sqlite(archive), "tess")) {
             a.createCase(new Archive.NewCase("C-5", "ticket <5> & co", "charger DB-5 <script>alert(1)</script>", "SN5",
                     "trips the supply", "tess"));
-            a.addSeries("C-5", Fixtures.series(shared.resolve("bench-1"), 41), null, null);
+            a.addSeries("C-5", Fixtures.series(shared.resolve("bench-1"), 11), null, null);
             analysis = CaseAnalysis.analyse(a, "C-5", "bench-1", AnalysisOptions.defaults(), CaseAnalysis.Mode.AUTO, 2,
                     Analyzer.Progress.NONE);
         }

@@ -21,12 +21,25 @@ import java.util.stream.Stream;
 final class Fixtures {
     private Fixtures() { }
 
-    /** A 12-frame simulated series (a small invented board, one heating part) with board.json and series.json. */
-    static Path series(Path dir, long seed) {
-        Simulator.run(Scenarios.small(0.9).withFrames(12, 0.5, 2.0).withSeed(seed), dir);
+    private static final java.util.Map<Long, Path> MADE = new java.util.HashMap<>();
+
+    /**
+     * A 12-frame simulated series (a small invented board, one heating part) with board.json and series.json, copied
+     * into {@code dir}; each seed is simulated once per test JVM (the simulator is deterministic for a seed).
+     */
+    static synchronized Path series(Path dir, long seed) {
         try {
-            Files.deleteIfExists(dir.resolve("truth.json"));
-            Files.deleteIfExists(dir.resolve("scenario.json"));
+            Path made = MADE.get(seed);
+            if (made == null) {
+                made = Files.createTempDirectory("risetrace-archive-fixture-" + seed + "-");
+                made.toFile().deleteOnExit();
+                Simulator.run(Scenarios.small(0.9).withFrames(12, 0.5, 2.0).withSeed(seed), made);
+                Files.deleteIfExists(made.resolve("truth.json"));
+                Files.deleteIfExists(made.resolve("scenario.json"));
+                for (Path f : regularFiles(made)) f.toFile().deleteOnExit();
+                MADE.put(seed, made);
+            }
+            copyTree(made, dir);
         } catch (IOException e) {
             throw new UncheckedIOException(e);
         }

@@ -40,7 +40,7 @@ class TamperTest {
         try (Archive a = Archive.open(ArchiveSettings.sqlite(template), "tess")) {
             a.createCase(Fixtures.newCase("C-1"));
             a.createCase(Fixtures.newCase("C-2"));
-            series = a.addSeries("C-1", Fixtures.series(shared.resolve("bench-1"), 21), null, null).series();
+            series = a.addSeries("C-1", Fixtures.series(shared.resolve("bench-1"), 11), null, null).series();
             analysis = CaseAnalysis.analyse(a, "C-1", "bench-1", AnalysisOptions.defaults(), CaseAnalysis.Mode.AUTO, 2,
                     Analyzer.Progress.NONE);
         }

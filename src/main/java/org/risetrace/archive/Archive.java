@@ -41,6 +41,8 @@ public final class Archive implements AutoCloseable {
     public static final Pattern SERIES_NAME = Pattern.compile("[A-Za-z0-9][A-Za-z0-9._-]{0,63}");
     public static final List<String> STATUSES = List.of("open", "closed");
     static final int MAX_FIELD = 500;
+    /** Files stored at once by add-series. */
+    static final int STORE_THREADS = 4;
     private static final ObjectMapper JSON = new ObjectMapper();
 
     final ArchiveSettings settings;
@@ -456,22 +458,47 @@ public final class Archive implements AutoCloseable {
                 roles.add(extra[1]);
             }
         }
-        List<StoredFile> stored = new ArrayList<>();
-        StringBuilder listing = new StringBuilder();
-        for (int i = 0; i < sources.size(); i++) {
-            Path p = sources.get(i);
+        for (Path p : sources)
             if (!Files.isRegularFile(p, LinkOption.NOFOLLOW_LINKS))
                 throw new ArchiveException(p, "not a regular file (a link, folder or device)", "copy the file itself in");
-            String fileName = roles.get(i).equals("board") ? "board.json" : p.getFileName().toString();
-            try {
-                String modified = Index.time(Files.getLastModifiedTime(p, LinkOption.NOFOLLOW_LINKS).toInstant());
-                ContentStore.Stored st = store.put(p, null);
-                stored.add(new StoredFile(i, roles.get(i), fileName, st.sha256(), st.sizeBytes(), modified));
-                listing.append(st.sha256()).append("  ").append(fileName).append('\n');
-            } catch (IOException e) {
-                throw new ArchiveException(p, "cannot store the file: " + e.getMessage(), null, e);
+        // the files are stored by a few threads at once: one file's fsync overlaps the next one's hashing
+        StoredFile[] done = new StoredFile[sources.size()];
+        java.util.concurrent.ExecutorService pool = java.util.concurrent.Executors.newFixedThreadPool(
+                Math.max(1, Math.min(STORE_THREADS, sources.size())));
+        try {
+            List<java.util.concurrent.Future<?>> futures = new ArrayList<>();
+            for (int i = 0; i < sources.size(); i++) {
+                int k = i;
+                futures.add(pool.submit(() -> {
+                    Path p = sources.get(k);
+                    String fileName = roles.get(k).equals("board") ? "board.json" : p.getFileName().toString();
+                    try {
+                        String modified = Index.time(Files.getLastModifiedTime(p, LinkOption.NOFOLLOW_LINKS).toInstant());
+                        ContentStore.Stored st = store.put(p, null);
+                        done[k] = new StoredFile(k, roles.get(k), fileName, st.sha256(), st.sizeBytes(), modified);
+                    } catch (IOException e) {
+                        throw new ArchiveException(p, "cannot store the file: " + e.getMessage(), null, e);
+                    }
+                    return null;
+                }));
             }
+            for (java.util.concurrent.Future<?> f : futures) {
+                try {
+                    f.get();
+                } catch (java.util.concurrent.ExecutionException e) {
+                    if (e.getCause() instanceof RuntimeException re) throw re;
+                    throw new IllegalStateException(e.getCause());
+                } catch (InterruptedException e) {
+                    Thread.currentThread().interrupt();
+                    throw new ArchiveException(folder, "interrupted while storing the series");
+                }
+            }
+        } finally {
+            pool.shutdownNow();
         }
+        List<StoredFile> stored = List.of(done);
+        StringBuilder listing = new StringBuilder();
+        for (StoredFile f : stored) listing.append(f.sha256()).append("  ").append(f.fileName()).append('\n');
         Sidecar sc = s.sidecar();
         String injection = null;
         if (sc != null && sc.injection() != null) injection = JSON.valueToTree(sc.injection()).toString();

@@ -15,7 +15,7 @@ import java.util.regex.Pattern;
 /** SHA-256 (FIPS 180-4) as lowercase hex, the form BagIt manifests and {@code sha256sum} print. */
 public final class Hashes {
     private static final Pattern HEX64 = Pattern.compile("[0-9a-f]{64}");
-    static final int BUFFER = 1 << 16;
+    static final int BUFFER = 1 << 20;
 
     private Hashes() { }
 

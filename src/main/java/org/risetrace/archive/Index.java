@@ -32,6 +32,9 @@ public final class Index implements AutoCloseable {
     private final Connection conn;
     private final Dialect dialect;
     private final String where;
+    /** SQLite: a second connection whose deferred transactions read one snapshot (WAL) without the write lock. */
+    private Connection reader;
+    private java.util.function.Supplier<Connection> readerFactory;
 
     /** Work in a transaction. */
     @FunctionalInterface
@@ -56,7 +59,19 @@ public final class Index implements AutoCloseable {
                 cfg.setTransactionMode(SQLiteConfig.TransactionMode.IMMEDIATE);
                 Path file = s.folder().resolve(SQLITE_FILE);
                 Connection c = DriverManager.getConnection("jdbc:sqlite:" + file, cfg.toProperties());
-                return migrate(new Index(c, Dialect.SQLITE, file.toString()));
+                Index ix = new Index(c, Dialect.SQLITE, file.toString());
+                SQLiteConfig readCfg = new SQLiteConfig();
+                readCfg.enforceForeignKeys(true);
+                readCfg.setBusyTimeout(60_000);
+                readCfg.setTransactionMode(SQLiteConfig.TransactionMode.DEFERRED);
+                ix.readerFactory = () -> {
+                    try {
+                        return DriverManager.getConnection("jdbc:sqlite:" + file, readCfg.toProperties());
+                    } catch (SQLException e) {
+                        throw new ArchiveException(file, "cannot open the archive index: " + e.getMessage(), null, e);
+                    }
+                };
+                return migrate(ix);
             }
             Properties p = new Properties();
             p.setProperty("user", s.user());
@@ -117,7 +132,16 @@ public final class Index implements AutoCloseable {
     /** Runs {@code work} reading one consistent state. */
     public <T> T read(Work<T> work) {
         try {
-            if (dialect == Dialect.SQLITE) return work.run(conn); // each statement sees a committed state
+            if (dialect == Dialect.SQLITE) {
+                if (reader == null) reader = readerFactory.get();
+                reader.setAutoCommit(false); // a deferred transaction: every statement sees the same snapshot
+                try {
+                    return work.run(reader);
+                } finally {
+                    reader.commit();
+                    reader.setAutoCommit(true);
+                }
+            }
             conn.setAutoCommit(false);
             try {
                 conn.setTransactionIsolation(Connection.TRANSACTION_REPEATABLE_READ);
@@ -197,6 +221,7 @@ public final class Index implements AutoCloseable {
     @Override
     public void close() {
         try {
+            if (reader != null) reader.close();
             conn.close();
         } catch (SQLException ignored) {
             // closing: nothing to keep

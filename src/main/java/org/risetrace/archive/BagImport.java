@@ -103,6 +103,10 @@ public final class BagImport {
                     top = name.substring(0, name.indexOf('/'));
             }
             if (!rootBag && top == null) throw new ArchiveException(zip, "no bagit.txt at the top of the zip", "is it a bag?");
+            if (!rootBag)
+                for (ZipArchiveEntry e : entries)
+                    if (!e.getName().startsWith(top + "/") && !e.getName().equals(top + "/"))
+                        throw new ArchiveException(zip, "entry '" + e.getName() + "' lies outside the bag folder '" + top + "'");
             long total = 0;
             Files.createDirectories(into);
             for (ZipArchiveEntry e : entries) {

@@ -161,6 +161,25 @@ class ArchiveStoreTest {
     }
 
     @Test
+    void aPeriodicSeriesIsAnalysedByLockInAsAnalyzeWouldAndItsOutputsKept() {
+        // the simulator records the square wave's period in series.json, which makes 'auto' choose lock-in
+        Path src = tmp.resolve("pulsed");
+        org.risetrace.sim.Simulator.run(org.risetrace.sim.Scenarios.small(2.0).withFrames(16, 0.5, 2.0).withSeed(5L)
+                .withSquareWave(2.0, 0.5), src);
+        assertTrue(org.risetrace.analysis.LockInAnalyzer.periodic(Series.open(src)), "the reference says periodic");
+        try (Archive a = Archive.open(ArchiveSettings.sqlite(tmp.resolve("archive")), "tess")) {
+            a.createCase(Fixtures.newCase("C-1"));
+            a.addSeries("C-1", src, null, null);
+            Archive.AnalysisRecord r = CaseAnalysis.analyse(a, "C-1", "pulsed", AnalysisOptions.defaults(),
+                    CaseAnalysis.Mode.AUTO, 2, Analyzer.Progress.NONE);
+            assertEquals("lock-in", r.mode());
+            assertTrue(r.outputs().stream().anyMatch(o -> o.name().equals("report.html")));
+            assertTrue(a.show("C-1").series().get(0).injection().contains("period_s"), "the injection record is kept");
+            assertTrue(Verifier.verify(a, null).clean());
+        }
+    }
+
+    @Test
     void theSchemaIsVersionedAndANewerArchiveIsRefused() throws Exception {
         Path archive = tmp.resolve("archive");
         Archive.open(ArchiveSettings.sqlite(archive), "tess").close();

@@ -136,9 +136,9 @@ public final class CustomerReport {
         if (status.startsWith("no"))
             return "No part warmed measurably while current was fed into the board, so this measurement does not "
                     + "point to a failed part.";
-        return "The measurement does not single out one part with enough certainty"
-                + (an.reason() == null ? "." : " (" + an.reason() + ").")
-                + " Further tests are needed before a part is replaced.";
+        // the technical reason stands in the "Measured:" line below; the customer reads what it means
+        return "The measurement does not single out one part with enough certainty. Further tests are needed before "
+                + "a part is replaced.";
     }
 
     /** "with 1.0 V fed from VCORE to GND, current limited to 2 A" from the series' injection record. */

@@ -23,6 +23,7 @@ import picocli.CommandLine.Command;
                 PlanCommand.class, ReadingsCommand.class,
                 BatchCommand.class,
                 ServeCommand.class,
+                CaseCommand.class,
                 CommandLine.HelpCommand.class})
 public final class Main implements Runnable {
     public static final int EXIT_OK = 0;

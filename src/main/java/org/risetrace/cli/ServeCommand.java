@@ -36,6 +36,24 @@ public final class ServeCommand implements Callable<Integer> {
     @Option(names = "--max-upload-mb", paramLabel = "MB", description = "largest uploaded frame file, MB (default: ${DEFAULT-VALUE})")
     int maxUploadMb = (int) (WorkbenchServer.DEFAULT_MAX_UPLOAD_BYTES >> 20);
 
+    @CommandLine.Mixin
+    ArchiveOptions archive = new ArchiveOptions();
+
+    /**
+     * The archive the archive tab shows: the one named by --archive/--archive-db or the environment, else the
+     * default folder when an archive already exists there; null (no archive tab) otherwise.
+     */
+    org.risetrace.archive.ArchiveSettings archiveSettings() {
+        java.util.Map<String, String> env = System.getenv();
+        boolean named = archive.folder != null || archive.db != null
+                || env.get(org.risetrace.archive.ArchiveSettings.ENV_ARCHIVE) != null
+                || env.get(org.risetrace.archive.ArchiveSettings.ENV_DB) != null;
+        org.risetrace.archive.ArchiveSettings s = org.risetrace.archive.ArchiveSettings.resolve(archive.folder,
+                archive.db, archive.dbConfig, env);
+        if (named) return s;
+        return Files.isRegularFile(s.folder().resolve(org.risetrace.archive.Archive.MARKER_FILE)) ? s : null;
+    }
+
     @Override
     public Integer call() throws IOException, InterruptedException {
         CommandLine cl = spec.commandLine();
@@ -52,8 +70,14 @@ public final class ServeCommand implements Callable<Integer> {
             if (!Files.isDirectory(f)) throw new CommandLine.ParameterException(cl, "--root " + f + ": not a folder");
         WorkbenchServer server;
         try {
+            org.risetrace.archive.ArchiveSettings archived = archiveSettings();
+            if (archived != null) { // opened once here: a wrong address or folder is said at start, not on the page
+                try (org.risetrace.archive.Archive a = org.risetrace.archive.Archive.open(archived, archive.who())) {
+                    a.settings();
+                }
+            }
             server = WorkbenchServer.start(new WorkbenchServer.Config(address, port, folders.stream()
-                    .map(p -> p.toAbsolutePath()).toList(), (long) maxUploadMb << 20));
+                    .map(p -> p.toAbsolutePath()).toList(), (long) maxUploadMb << 20, archived, archive.who()));
         } catch (java.net.BindException e) {
             throw new CommandLine.ParameterException(cl, "cannot listen on " + bind + ":" + port + " (" + e.getMessage()
                     + "); try another --port");
@@ -61,6 +85,9 @@ public final class ServeCommand implements Callable<Integer> {
         PrintWriter out = cl.getOut();
         out.println("risetrace workbench: " + server.url());
         for (int i = 0; i < server.roots().size(); i++) out.println("root " + i + ": " + server.roots().get(i));
+        out.println(server.config().archive() == null ? "no archive (start with --archive DIR for the archive tab)"
+                : "archive: " + server.config().archive().folder() + (server.config().archive().dbUrl() == null
+                ? " (SQLite index)" : " (index " + server.config().archive().dbUrl() + ")"));
         if (server.accessToken() != null) {
             out.println("listening beyond this machine; the page asks for this access token (shown once):");
             out.println("  " + server.accessToken());

@@ -79,7 +79,10 @@ final class Api {
     };
     private final Map<Path, Long> seriesStamp = new java.util.HashMap<>();
 
-    Api(Roots roots, Jobs jobs, long maxUploadBytes) throws IOException {
+    private final ArchiveApi archive;
+
+    Api(Roots roots, Jobs jobs, long maxUploadBytes, ArchiveApi archive) throws IOException {
+        this.archive = archive;
         this.roots = roots;
         this.jobs = jobs;
         this.maxUploadBytes = maxUploadBytes;
@@ -99,12 +102,18 @@ final class Api {
         m.put("palette", ColourMaps.EMBER.table());
         m.put("safety", ReportHtml.SAFETY_TEXT);
         m.put("max_upload_bytes", maxUploadBytes);
+        m.put("archive", archive != null);
         return m;
     }
 
     void handle(WorkbenchServer.Request r, String method, String path) throws IOException {
         var ex = r.ex;
         boolean get = method.equals("GET") || method.equals("HEAD");
+        if (path.startsWith("/api/archive/")) {
+            if (archive == null) throw WebError.notFound("no archive: start the workbench with --archive");
+            archive.handle(r, get, path);
+            return;
+        }
         switch (path) {
             case "/api/browse" -> { if (get) { WorkbenchServer.sendJson(ex, 200, browse(r)); return; } }
             case "/api/series" -> { if (get) { WorkbenchServer.sendJson(ex, 200, series(r)); return; } }

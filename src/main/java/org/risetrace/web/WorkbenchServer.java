@@ -55,12 +55,20 @@ public final class WorkbenchServer implements AutoCloseable {
      * @param port            port (0: any free one)
      * @param roots           folders series are read from and board files written to
      * @param maxUploadBytes  largest uploaded frame
+     * @param archive         the evidence archive the archive tab shows (null: no archive tab)
+     * @param archiveUser     who the archive's custody log names for what the page does
      */
-    public record Config(InetAddress bind, int port, List<Path> roots, long maxUploadBytes) {
+    public record Config(InetAddress bind, int port, List<Path> roots, long maxUploadBytes,
+                         org.risetrace.archive.ArchiveSettings archive, String archiveUser) {
         public Config {
             if (port < 0 || port > 65535) throw new IllegalArgumentException("port must be 0 to 65535");
             if (maxUploadBytes < 1) throw new IllegalArgumentException("upload limit must be positive");
             roots = List.copyOf(roots);
+        }
+
+        /** Without an archive. */
+        public Config(InetAddress bind, int port, List<Path> roots, long maxUploadBytes) {
+            this(bind, port, roots, maxUploadBytes, null, null);
         }
     }
 
@@ -79,7 +87,8 @@ public final class WorkbenchServer implements AutoCloseable {
         this.roots = new Roots(config.roots());
         this.accessToken = config.bind().isLoopbackAddress() ? null : randomToken();
         this.jobs = new Jobs();
-        this.api = new Api(roots, jobs, config.maxUploadBytes());
+        this.api = new Api(roots, jobs, config.maxUploadBytes(),
+                config.archive() == null ? null : new ArchiveApi(config.archive(), config.archiveUser(), roots));
         this.server = HttpServer.create(new InetSocketAddress(config.bind(), config.port()), 32);
         this.requestThreads = Executors.newFixedThreadPool(8, r -> {
             Thread t = new Thread(r, "workbench-http");
@@ -100,6 +109,9 @@ public final class WorkbenchServer implements AutoCloseable {
     public int port() { return server.getAddress().getPort(); }
 
     /** The address to open in a browser. */
+    /** What the server was started with. */
+    public Config config() { return config; }
+
     public String url() {
         InetAddress a = config.bind();
         String host = a.isLoopbackAddress() ? "localhost"

@@ -81,6 +81,7 @@ async function start() {
   const ms = $('part-material'); ms.innerHTML = ''; ms.add(new Option('(none: the profile default)', ''));
   for (const m of S.session.materials) ms.add(new Option(m, m));
   wire();
+  if (S.session.archive) { $('tab-btn-archive').hidden = false; wireArchive(); }
   await browse(0, '');
 }
 
@@ -103,6 +104,7 @@ function setTab(name) {
   if (name === 'outline') { S.view.fitted = false; drawFrame(); drawRect(); }
   if (name === 'parts') { drawBoard(); }
   if (name === 'analyse') { drawResults(); }
+  if (name === 'archive') { searchCases(); }
 }
 
 function typing(e) {
@@ -115,7 +117,8 @@ function onKey(e) {
   if (typing(e) || e.ctrlKey || e.metaKey) return;
   if (document.querySelector('dialog[open]')) return;
   const tabs = ['open', 'outline', 'parts', 'analyse', 'compare'];
-  if (!e.altKey && e.key >= '1' && e.key <= '5') { setTab(tabs[+e.key - 1]); e.preventDefault(); return; }
+  if (S.session && S.session.archive) tabs.push('archive');
+  if (!e.altKey && e.key >= '1' && e.key <= String(tabs.length)) { setTab(tabs[+e.key - 1]); e.preventDefault(); return; }
   if (e.key === '?') { $('help').showModal(); e.preventDefault(); return; }
   if (S.tab === 'outline') {
     if (e.altKey && S.lastCorner >= 0 && e.key.startsWith('Arrow')) {
@@ -857,6 +860,74 @@ async function compare() {
     $('compare-info').textContent = r.after + ' against ' + r.before + '.';
   } catch (e) { $('compare-info').textContent = e.message; show(e.message); }
   finally { $('compare-btn').disabled = false; }
+}
+
+// ------------------------------------------------------------------------------------------------ archive
+
+function wireArchive() {
+  $('case-search-btn').onclick = searchCases;
+  $('case-search').onkeydown = (e) => { if (e.key === 'Enter') { e.preventDefault(); searchCases(); } };
+  $('case-status').onchange = searchCases;
+  $('case-add-btn').onclick = addSeriesToCase;
+}
+
+async function searchCases() {
+  try {
+    const r = await api('GET', '/api/archive/cases?' + q({ text: $('case-search').value, status: $('case-status').value }));
+    const tb = $('case-table').tBodies[0]; tb.innerHTML = '';
+    for (const c of r.cases) {
+      const tr = tb.insertRow(); tr.tabIndex = 0; tr.dataset.case = c.caseNumber;
+      for (const v of [c.caseNumber, c.customerRef, c.device, c.fault, c.status, (c.openedAt || '').slice(0, 10)])
+        tr.insertCell().textContent = v || '\u2013';
+      tr.onclick = () => openCase(c.caseNumber);
+      tr.onkeydown = (e) => { if (e.key === 'Enter') openCase(c.caseNumber); };
+      if (c.caseNumber === S.caseNumber) tr.className = 'leader';
+    }
+    $('case-info').textContent = r.cases.length + ' case' + (r.cases.length === 1 ? '' : 's')
+      + (r.cases.length >= r.limit ? ' (the first ' + r.limit + ')' : '') + '. Click one to open it.';
+  } catch (e) { $('case-info').textContent = e.message; show(e.message); }
+}
+
+async function openCase(number) {
+  try {
+    const r = await api('GET', '/api/archive/case?' + q({ number }));
+    S.caseNumber = number;
+    for (const tr of $('case-table').tBodies[0].rows) tr.className = tr.dataset.case === number ? 'leader' : '';
+    const c = r.case;
+    $('case-title').textContent = 'Case ' + c.caseNumber + (c.device ? ' \u00b7 ' + c.device : '');
+    $('case-summary').textContent = [c.customerRef && 'customer ref. ' + c.customerRef, c.serialNumber && 'serial ' + c.serialNumber,
+      c.fault && 'fault: ' + c.fault, c.technician && 'technician ' + c.technician, 'status ' + c.status,
+      r.custody_entries + ' custody log entries'].filter(Boolean).join(' \u00b7 ');
+    const ts = $('case-series').tBodies[0]; ts.innerHTML = '';
+    for (const s of r.series) {
+      const tr = ts.insertRow();
+      for (const v of [s.name, s.files, (s.added_at || '').replace('T', ' ').slice(0, 16), s.added_by])
+        tr.insertCell().textContent = v;
+    }
+    const ta = $('case-analyses').tBodies[0]; ta.innerHTML = '';
+    for (const a of r.analyses) {
+      const tr = ta.insertRow();
+      for (const v of [a.series, (a.analysed_at || '').replace('T', ' ').slice(0, 16), a.status, a.ref, a.headline || a.reason])
+        tr.insertCell().textContent = v || '\u2013';
+    }
+    $('case-detail').hidden = false;
+    $('case-add-btn').disabled = !S.series;
+    $('case-add-btn').textContent = S.series ? 'Add series \u201c' + S.series.name + '\u201d to case ' + number
+      : 'Open a series first (step 1) to add it';
+  } catch (e) { show(e.message); }
+}
+
+async function addSeriesToCase() {
+  if (!S.series || !S.caseNumber) return;
+  if (S.dirty) { show('the outline or parts changed since the last save: save board.json first (Ctrl+S)'); return; }
+  $('case-add-btn').disabled = true; $('case-info').textContent = 'copying the frames into the archive ...';
+  try {
+    const r = await api('POST', '/api/archive/add-series', { case: S.caseNumber, root: S.series.root, path: S.series.path });
+    $('case-info').textContent = (r.already_present ? 'already in the case, unchanged: ' : 'added: ') + r.series
+      + ' (' + r.files + ' files)' + (r.warnings.length ? '; ' + r.warnings.join('; ') : '');
+    await openCase(S.caseNumber);
+  } catch (e) { $('case-info').textContent = e.message; show(e.message); }
+  finally { $('case-add-btn').disabled = !S.series; }
 }
 
 window.addEventListener('DOMContentLoaded', start);

@@ -26,8 +26,13 @@ final class WorkbenchFixture implements AutoCloseable {
     String csrf;
 
     WorkbenchFixture(Path root, InetAddress bind, long maxUpload) throws IOException {
-        this.root = root;
-        this.server = WorkbenchServer.start(new WorkbenchServer.Config(bind, 0, List.of(root), maxUpload));
+        this(new WorkbenchServer.Config(bind, 0, List.of(root), maxUpload));
+    }
+
+    /** A workbench started with this configuration (its first root is the fixture's root). */
+    WorkbenchFixture(WorkbenchServer.Config config) throws IOException {
+        this.root = config.roots().get(0);
+        this.server = WorkbenchServer.start(config);
     }
 
     /** Copies sample-frames/&lt;name&gt; under the root, without its board.json (the user marks it). */

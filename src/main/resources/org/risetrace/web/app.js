@@ -910,6 +910,10 @@ async function openCase(number) {
       for (const v of [a.series, (a.analysed_at || '').replace('T', ' ').slice(0, 16), a.status, a.ref, a.headline || a.reason])
         tr.insertCell().textContent = v || '\u2013';
     }
+    if (!r.analyses.length) {
+      const cell = ta.insertRow().insertCell(); cell.colSpan = 5;
+      cell.textContent = 'none yet: risetrace case analyse ' + number + ' <series> analyses an archived series';
+    }
     $('case-detail').hidden = false;
     $('case-add-btn').disabled = !S.series;
     $('case-add-btn').textContent = S.series ? 'Add series \u201c' + S.series.name + '\u201d to case ' + number

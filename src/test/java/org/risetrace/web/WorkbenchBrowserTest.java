@@ -59,6 +59,7 @@ class WorkbenchBrowserTest {
     static Path profile;
     static WorkbenchFixture wb;
     static ChromeDriver driver;
+    static org.risetrace.archive.ArchiveSettings archive;
 
     @BeforeAll
     static void start() throws Exception {
@@ -72,7 +73,14 @@ class WorkbenchBrowserTest {
                     + " is missing");
         assumeTrue(present, "chromium and chromedriver are not installed");
         WorkbenchFixture.copySeries("phase-short", root, false);
-        wb = new WorkbenchFixture(root, InetAddress.getLoopbackAddress(), WorkbenchServer.DEFAULT_MAX_UPLOAD_BYTES);
+        // an archive with one open case, for the archive step
+        archive = org.risetrace.archive.ArchiveSettings.sqlite(profile.resolve("archive"));
+        try (org.risetrace.archive.Archive a = org.risetrace.archive.Archive.open(archive, "test")) {
+            a.createCase(new org.risetrace.archive.Archive.NewCase("2026-0107", "ticket 4471",
+                    "DB-31 three-phase buck controller board", "SN-31-0007", "core rail shorted to ground", "test"));
+        }
+        wb = new WorkbenchFixture(new WorkbenchServer.Config(InetAddress.getLoopbackAddress(), 0, List.of(root),
+                WorkbenchServer.DEFAULT_MAX_UPLOAD_BYTES, archive, "bench-tech"));
         System.setProperty("webdriver.chrome.driver", CHROMEDRIVER.toString());
         ChromeDriverService service = new ChromeDriverService.Builder().usingDriverExecutable(CHROMEDRIVER.toFile())
                 .usingAnyFreePort().build();
@@ -263,11 +271,27 @@ class WorkbenchBrowserTest {
         assertEquals(java.util.Arrays.toString(Files.readAllBytes(frame0)).hashCode(),
                 java.util.Arrays.toString(Files.readAllBytes(root.resolve("bench-upload/f0001.png"))).hashCode());
 
+        // the archive step: find the case, open it, add the open series; the archive then holds it
+        driver.findElement(By.id("tab-btn-archive")).click();
+        WebElement search = driver.findElement(By.id("case-search"));
+        search.sendKeys("buck", Keys.ENTER);
+        waiting(20).until(d -> d.findElements(By.cssSelector("#case-table tbody tr")).size() == 1);
+        driver.findElement(By.cssSelector("#case-table tbody tr")).click();
+        waiting(20).until(d -> d.findElement(By.id("case-add-btn")).isEnabled());
+        driver.findElement(By.id("case-add-btn")).click();
+        waiting(60).until(d -> d.findElement(By.id("case-info")).getText().startsWith("added: phase-short"));
+        waiting(20).until(d -> d.findElements(By.cssSelector("#case-series tbody tr")).size() == 1);
+        shot("6-archive-1280x800");
+        try (org.risetrace.archive.Archive a = org.risetrace.archive.Archive.open(archive, "check")) {
+            assertEquals(1, a.show("2026-0107").series().size());
+            assertEquals("phase-short", a.show("2026-0107").series().get(0).name());
+        }
+
         // the same steps at tablet size, portrait and landscape (screenshots for a person to look at)
         for (Dimension d : new Dimension[]{new Dimension(820, 1180), new Dimension(1180, 820)}) {
             driver.manage().window().setSize(d);
             String size = d.getWidth() + "x" + d.getHeight();
-            for (String tab : new String[]{"open", "outline", "parts", "analyse", "compare"}) {
+            for (String tab : new String[]{"open", "outline", "parts", "analyse", "compare", "archive"}) {
                 driver.findElement(By.id("tab-btn-" + tab)).click();
                 Thread.sleep(250);
                 shot("tablet-" + tab + "-" + size);

@@ -21,7 +21,7 @@ import picocli.CommandLine.Command;
                 DemoCommand.class,
                 CalibrateCommand.class,
                 PlanCommand.class, ReadingsCommand.class,
-                BatchCommand.class,
+                BatchCommand.class, BenchCommand.class,
                 CommandLine.HelpCommand.class})
 public final class Main implements Runnable {
     public static final int EXIT_OK = 0;

@@ -1,0 +1,40 @@
+package org.risetrace.bench;
+
+import org.risetrace.analysis.Analysis;
+import org.risetrace.analysis.AnalysisOptions;
+import org.risetrace.analysis.Analyzer;
+import org.risetrace.analysis.SeriesAnalyzer;
+import org.risetrace.board.Board;
+import org.risetrace.board.BoardFile;
+import org.risetrace.io.Series;
+import org.risetrace.report.Reports;
+
+import java.nio.file.Path;
+import java.util.Locale;
+
+/**
+ * The child process of {@code risetrace bench} that measures the heap: analyses one series (analysis and report, as
+ * {@code analyze} does) under the heap limit its parent gave the JVM and prints one line
+ * {@code frames=N seconds=S pool_peak_bytes=P after_gc_max_bytes=L verdict=V}.
+ */
+public final class HeapProbe {
+    private HeapProbe() {
+    }
+
+    public static void main(String[] args) {
+        Path series = Path.of(args[0]), out = Path.of(args[1]);
+        try (HeapWatch watch = new HeapWatch()) {
+            long t0 = System.nanoTime();
+            Series s = Series.open(series);
+            Board b = BoardFile.read(series.resolve("board.json"), null);
+            Analysis a = SeriesAnalyzer.analyze(s, b, series.resolve("board.json"), series.toString(),
+                    AnalysisOptions.defaults(), SeriesAnalyzer.emissivity(s.profile()), SeriesAnalyzer.defaultThreads(),
+                    Analyzer.Progress.NONE);
+            Reports.writeAll(a, out, null, true);
+            double seconds = (System.nanoTime() - t0) / 1e9;
+            System.out.printf(Locale.ROOT, "frames=%d seconds=%.4f pool_peak_bytes=%d after_gc_max_bytes=%d verdict=%s%n",
+                    s.size(), seconds, watch.poolPeakBytes(), watch.maxAfterGcBytes(),
+                    a.result().verdict().status().word());
+        }
+    }
+}

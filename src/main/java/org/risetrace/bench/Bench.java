@@ -84,7 +84,7 @@ public final class Bench {
 
     /** A child JVM's analysis of a series. */
     public record HeapRow(int frames, String heapLimit, double msPerFrame, long poolPeakBytes, long afterGcMaxBytes,
-                          String verdict) {
+                          long retainedBytes, String verdict) {
     }
 
     /** A target of issue 11 and whether this run met it. */
@@ -259,7 +259,8 @@ public final class Bench {
         return new ColdRow(label, wall, timing);
     }
 
-    static HeapRow child(Path series, Path out, String xmx) {
+    /** Runs {@link HeapProbe} on a series in a child JVM (heap limit {@code xmx}, e.g. "-Xmx256m"; null: default). */
+    public static HeapRow child(Path series, Path out, String xmx) {
         List<String> cmd = new ArrayList<>(List.of(javaBin()));
         if (xmx != null) cmd.add(xmx);
         cmd.addAll(List.of("-cp", classPath(), HeapProbe.class.getName(), series.toString(), out.toString()));
@@ -269,7 +270,7 @@ public final class Bench {
         double s = Double.parseDouble(field(line, "seconds"));
         return new HeapRow(frames, xmx == null ? "default" : xmx.substring("-Xmx".length()), 1000 * s / frames,
                 Long.parseLong(field(line, "pool_peak_bytes")), Long.parseLong(field(line, "after_gc_max_bytes")),
-                field(line, "verdict"));
+                Long.parseLong(field(line, "retained_bytes")), field(line, "verdict"));
     }
 
     private static String field(String line, String key) {
@@ -308,7 +309,7 @@ public final class Bench {
      * made), played forward and back so no frame jumps, at the same interval and with the same injection start;
      * the board file follows the renamed reference frame.
      */
-    static Path repeated(Path source, Path target, int count) {
+    public static Path repeated(Path source, Path target, int count) {
         try {
             Files.createDirectories(target);
             Series s = Series.open(source);
@@ -397,8 +398,9 @@ public final class Bench {
         b.append("\nheap in child JVMs (analysis and report):\n");
         for (HeapRow h : r.heap())
             b.append(String.format(Locale.ROOT, "  %5d frames, heap %-8s %7.2f ms/frame, pool peaks %7.1f MiB, "
-                            + "largest after a collection %7.1f MiB, %s%n", h.frames(), h.heapLimit(), h.msPerFrame(),
-                    h.poolPeakBytes() / 1048576.0, h.afterGcMaxBytes() / 1048576.0, h.verdict()));
+                            + "largest after a collection %7.1f MiB, result held %6.2f MiB, %s%n", h.frames(),
+                    h.heapLimit(), h.msPerFrame(), h.poolPeakBytes() / 1048576.0, h.afterGcMaxBytes() / 1048576.0,
+                    h.retainedBytes() / 1048576.0, h.verdict()));
         b.append("\ntargets:\n");
         for (Target t : r.targets())
             b.append(String.format(Locale.ROOT, "  %-4s %-62s %8.2f  (%s)%n", t.met() ? "met" : "MISS", t.what(),

@@ -15,7 +15,8 @@ import java.util.Locale;
 /**
  * The child process of {@code risetrace bench} that measures the heap: analyses one series (analysis and report, as
  * {@code analyze} does) under the heap limit its parent gave the JVM and prints one line
- * {@code frames=N seconds=S pool_peak_bytes=P after_gc_max_bytes=L verdict=V}.
+ * {@code frames=N seconds=S pool_peak_bytes=P after_gc_max_bytes=L retained_bytes=R verdict=V}, where R is the heap
+ * still in use after a full collection with the analysis' result held, less the heap in use before it began.
  */
 public final class HeapProbe {
     private HeapProbe() {
@@ -23,6 +24,7 @@ public final class HeapProbe {
 
     public static void main(String[] args) {
         Path series = Path.of(args[0]), out = Path.of(args[1]);
+        long before = HeapWatch.usedAfterFullGc();
         try (HeapWatch watch = new HeapWatch()) {
             long t0 = System.nanoTime();
             Series s = Series.open(series);
@@ -32,9 +34,12 @@ public final class HeapProbe {
                     Analyzer.Progress.NONE);
             Reports.writeAll(a, out, null, true);
             double seconds = (System.nanoTime() - t0) / 1e9;
-            System.out.printf(Locale.ROOT, "frames=%d seconds=%.4f pool_peak_bytes=%d after_gc_max_bytes=%d verdict=%s%n",
-                    s.size(), seconds, watch.poolPeakBytes(), watch.maxAfterGcBytes(),
+            long pool = watch.poolPeakBytes(), afterGc = watch.maxAfterGcBytes();
+            long retained = HeapWatch.usedAfterFullGc() - before;
+            System.out.printf(Locale.ROOT, "frames=%d seconds=%.4f pool_peak_bytes=%d after_gc_max_bytes=%d "
+                            + "retained_bytes=%d verdict=%s%n", s.size(), seconds, pool, afterGc, retained,
                     a.result().verdict().status().word());
+            java.lang.ref.Reference.reachabilityFence(a);
         }
     }
 }

@@ -51,6 +51,18 @@ final class HeapWatch implements AutoCloseable {
         return false;
     }
 
+    /** Heap in use after full collections (three, until it stops falling), bytes. */
+    static long usedAfterFullGc() {
+        long used = Long.MAX_VALUE;
+        for (int i = 0; i < 3; i++) {
+            System.gc();
+            long now = ManagementFactory.getMemoryMXBean().getHeapMemoryUsage().getUsed();
+            if (now >= used) break;
+            used = now;
+        }
+        return used;
+    }
+
     /** Sum of the heap pools' peaks since this watch began, bytes. */
     long poolPeakBytes() {
         long sum = 0;

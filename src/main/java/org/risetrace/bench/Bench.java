@@ -61,6 +61,10 @@ public final class Bench {
         int height() { return quick ? 128 : 512; }
         int frames() { return quick ? 12 : 300; }
         int longFrames() { return 10 * frames(); }
+        /** The cold start is timed on issue 11's case: 150 frames of 640 x 480, hand-held, 16-bit PNG. */
+        int coldWidth() { return quick ? 160 : 640; }
+        int coldHeight() { return quick ? 128 : 480; }
+        int coldFrames() { return quick ? 12 : 150; }
     }
 
     /** One generated series: rates in frames per second, one thread unless said. */
@@ -84,7 +88,7 @@ public final class Bench {
 
     /** A child JVM's analysis of a series. */
     public record HeapRow(int frames, String heapLimit, double msPerFrame, long poolPeakBytes, long afterGcMaxBytes,
-                          long retainedBytes, String verdict) {
+                          long liveMaxBytes, long retainedBytes, String verdict) {
     }
 
     /** A target of issue 11 and whether this run met it. */
@@ -130,11 +134,16 @@ public final class Bench {
             }
             log.accept("batch: one job on one thread, one job on all threads, two jobs");
             BatchRow batch = batch(root, work, o.frames() * names.length, names.length);
+            Path coldSeries = work.resolve("cold-series");
+            log.accept("generating the cold-start case (" + o.coldFrames() + " frames of " + o.coldWidth() + " x "
+                    + o.coldHeight() + ", hand-held PNG)");
+            Simulator.run(scenario(o, "hand-held-png").withSize(o.coldWidth(), o.coldHeight())
+                    .withFrames(o.coldFrames(), 0.5, 5.0), coldSeries);
             log.accept("cold analyze in a new JVM");
             List<ColdRow> cold = List.of(
-                    cold("java -jar (JVM defaults)", List.of(), series.get(0), work.resolve("cold-a")),
+                    cold("java -jar (JVM defaults)", List.of(), coldSeries, work.resolve("cold-a")),
                     cold("launcher settings (" + String.join(" ", launcherFlags()) + ")", launcherFlags(),
-                            series.get(0), work.resolve("cold-b")));
+                            coldSeries, work.resolve("cold-b")));
             log.accept("heap: " + o.frames() + " and " + o.longFrames() + " frames in child JVMs");
             Path longSeries = repeated(series.get(0), work.resolve("long"), o.longFrames());
             List<HeapRow> heap = List.of(
@@ -270,7 +279,8 @@ public final class Bench {
         double s = Double.parseDouble(field(line, "seconds"));
         return new HeapRow(frames, xmx == null ? "default" : xmx.substring("-Xmx".length()), 1000 * s / frames,
                 Long.parseLong(field(line, "pool_peak_bytes")), Long.parseLong(field(line, "after_gc_max_bytes")),
-                Long.parseLong(field(line, "retained_bytes")), field(line, "verdict"));
+                Long.parseLong(field(line, "live_max_bytes")), Long.parseLong(field(line, "retained_bytes")),
+                field(line, "verdict"));
     }
 
     private static String field(String line, String key) {
@@ -357,12 +367,12 @@ public final class Bench {
         t.add(new Target("batch: two jobs / one job on one thread", batch.twoJobsRatio(), ">= 1.7",
                 batch.twoJobsRatio() >= 1.7));
         double coldBest = cold.stream().mapToDouble(ColdRow::wallSeconds).min().orElse(Double.NaN);
-        t.add(new Target("cold analyze, seconds (fastest settings)", coldBest, "<= 3.7 (150 frames 640 x 480)",
+        t.add(new Target("cold analyze, seconds (fastest settings)", coldBest, "<= 3.7",
                 coldBest <= 3.7));
         HeapRow shortRun = heap.get(0), longRun = heap.get(1), defaultHeap = heap.get(2);
-        double heapRatio = (double) longRun.afterGcMaxBytes() / shortRun.afterGcMaxBytes();
-        t.add(new Target("heap after collections, " + longRun.frames() + " / " + shortRun.frames() + " frames", heapRatio,
-                "<= 1.1", heapRatio <= 1.1));
+        double heapRatio = (double) longRun.liveMaxBytes() / shortRun.liveMaxBytes();
+        t.add(new Target("live heap (full collections), " + longRun.frames() + " / " + shortRun.frames() + " frames",
+                heapRatio, "<= 1.1", heapRatio <= 1.1));
         double poolRatio = (double) longRun.poolPeakBytes() / shortRun.poolPeakBytes();
         t.add(new Target("heap pool peaks, " + longRun.frames() + " / " + shortRun.frames() + " frames", poolRatio,
                 "<= 1.1", poolRatio <= 1.1));
@@ -392,15 +402,17 @@ public final class Bench {
         b.append(String.format(Locale.ROOT, "%nbatch of %d series, %d frames: one job, one thread %.1f f/s; one job, "
                         + "all threads %.1f f/s; two jobs %.1f f/s = %.2fx one job on one thread%n", bt.seriesCount(),
                 bt.frames(), bt.oneJobOneThreadFps(), bt.oneJobAllThreadsFps(), bt.twoJobsFps(), bt.twoJobsRatio()));
-        b.append("\ncold analyze of ").append(r.series().isEmpty() ? "" : r.series().get(0).series()).append(" in a new JVM:\n");
+        b.append(String.format(Locale.ROOT, "%ncold analyze in a new JVM (%s):%n", r.quick() ? "12 frames of 160 x 128"
+                : "150 frames of 640 x 480, hand-held, 16-bit PNG"));
         for (ColdRow c : r.cold())
             b.append(String.format(Locale.ROOT, "  %6.2f s  %s%n          %s%n", c.wallSeconds(), c.settings(), c.timing()));
         b.append("\nheap in child JVMs (analysis and report):\n");
         for (HeapRow h : r.heap())
             b.append(String.format(Locale.ROOT, "  %5d frames, heap %-8s %7.2f ms/frame, pool peaks %7.1f MiB, "
-                            + "largest after a collection %7.1f MiB, result held %6.2f MiB, %s%n", h.frames(),
-                    h.heapLimit(), h.msPerFrame(), h.poolPeakBytes() / 1048576.0, h.afterGcMaxBytes() / 1048576.0,
-                    h.retainedBytes() / 1048576.0, h.verdict()));
+                            + "after any collection %7.1f MiB, live (full collections) %6.1f MiB, result held "
+                            + "%6.2f MiB, %s%n", h.frames(), h.heapLimit(), h.msPerFrame(), h.poolPeakBytes() / 1048576.0,
+                    h.afterGcMaxBytes() / 1048576.0, h.liveMaxBytes() / 1048576.0, h.retainedBytes() / 1048576.0,
+                    h.verdict()));
         b.append("\ntargets:\n");
         for (Target t : r.targets())
             b.append(String.format(Locale.ROOT, "  %-4s %-62s %8.2f  (%s)%n", t.met() ? "met" : "MISS", t.what(),

@@ -34,7 +34,7 @@ class SeriesMemoryTest {
         assertTrue(a.frames() == 58 && b.frames() == 580);
         // the largest live heap (a full collection at each tenth of the frames). At this small frame size its
         // constant part includes transients (frames in flight, a chain link's reference model per worker) that a
-        // sample may or may not catch: measured 14.4-15.0 MiB for 58 frames, 15.0-27.7 MiB for 580 over five runs.
+        // sample may or may not catch: measured 14.4-15.0 MiB for 58 frames, 15.0-27.7 MiB for the long one over four runs.
         // So the bound is 10 % plus 24 MiB: holding the 522 extra frames would take 160 MiB (320 x 256 floats
         // each), their board rasters alone over 60 MiB. The 10 % is checked by
         // risetrace bench at 640 x 512, 300 against 3,000 frames (DEVELOPERS.md).

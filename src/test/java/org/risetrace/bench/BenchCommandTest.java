@@ -78,7 +78,8 @@ class BenchCommandTest {
         assertEquals(worst, r.get("targets").get(0).get("value").asDouble(), 1e-9 * worst);
         assertEquals(b.get("two_jobs_fps").asDouble() / b.get("one_job_one_thread_fps").asDouble(),
                 r.get("targets").get(2).get("value").asDouble(), 1e-9);
-        assertEquals(heap.get(1).get("live_max_bytes").asDouble() / heap.get(0).get("live_max_bytes").asDouble(),
+        assertEquals(heap.get(1).get("live_max_bytes").asDouble() / Math.max(heap.get(0).get("live_max_bytes").asDouble(),
+                        heap.get(2).get("live_max_bytes").asDouble()),
                 r.get("targets").get(4).get("value").asDouble(), 1e-9);
         try (Stream<Path> left = Files.list(dir)) {
             assertEquals(0, left.count(), "the generated series are removed");
@@ -102,9 +103,10 @@ class BenchCommandTest {
         assertTrue(t.contains("55.0 (1.10x)"), t);
         assertTrue(t.contains("two jobs 36.0 f/s = 1.80x"), t);
         assertTrue(t.lines().anyMatch(l -> l.startsWith("  met ") && l.contains("two jobs")), t);
-        // 24 ms per frame against 22: 1.09, within 1.2; 62 MiB after collections against 60: 1.03
+        // 24 ms per frame against 22: 1.09, within 1.2; 62 MiB live against the larger of 60 and 61 (the two runs
+        // of 300 frames): 1.02
         assertTrue(t.lines().anyMatch(l -> l.startsWith("  met ") && l.contains("time per frame") && l.contains("1.09")), t);
-        assertTrue(t.lines().anyMatch(l -> l.startsWith("  met ") && l.contains("live heap") && l.contains("1.03")), t);
+        assertTrue(t.lines().anyMatch(l -> l.startsWith("  met ") && l.contains("live heap") && l.contains("1.02")), t);
         assertTrue(t.lines().anyMatch(l -> l.startsWith("  met ") && l.contains("cold analyze") && l.contains("3.50")), t);
     }
 }

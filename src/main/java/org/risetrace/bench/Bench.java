@@ -111,7 +111,8 @@ public final class Bench {
             work = o.workDir() != null ? Files.createTempDirectory(Files.createDirectories(o.workDir()), "risetrace-bench-")
                     : Files.createTempDirectory("risetrace-bench-");
         } catch (IOException e) {
-            throw new UncheckedIOException(e);
+            throw new org.risetrace.frame.InputRejected(o.workDir(), "cannot make a folder for the benchmark's series: "
+                    + e.getMessage(), "name a writable folder with --work-dir");
         }
         try {
             Path root = work.resolve("series");

@@ -57,7 +57,7 @@ class ArchitectureTest {
     @Test
     void coreNeverDependsOnUserInterfaces() {
         for (String core : new String[]{"frame", "io", "calibration", "board", "registration", "analysis", "report",
-                "sim", "archive", "batch", "planning"})
+                "sim", "archive", "batch", "planning", "bench"})
             mayNotUse(core, "cli", "web");
     }
 
@@ -99,6 +99,13 @@ class ArchitectureTest {
         for (String stage : new String[]{"frame", "io", "calibration", "board", "registration", "analysis", "report",
                 "sim", "planning"})
             mayNotUse(stage, "archive");
+    }
+
+    @Test
+    void onlyTheUserInterfacesUseTheBenchmark() {
+        for (String stage : new String[]{"frame", "io", "calibration", "board", "registration", "analysis", "report",
+                "sim", "planning", "archive", "batch"})
+            mayNotUse(stage, "bench");
     }
 
     @Test

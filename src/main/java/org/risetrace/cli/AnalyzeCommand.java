@@ -134,6 +134,7 @@ public final class AnalyzeCommand implements Callable<Integer> {
         AnalysisOptions options = tunables.options(spec.commandLine());
         PrintWriter err = spec.commandLine().getErr();
         if (!Files.isDirectory(series)) throw new InputRejected(series, "not a folder", "name the folder of frames");
+        Reports.warmUpInBackground(); // the report's code loads while the series opens (DEVELOPERS.md "Cold start")
         Series s = Series.open(series, output.profile, org.risetrace.io.ReadContext.DEFAULT_MAX_PIXELS);
         for (String w : s.warnings()) err.println("risetrace: " + w);
         Path dir = output.out != null ? output.out : Path.of("risetrace-out", series.toAbsolutePath().normalize().getFileName().toString());
@@ -148,10 +149,17 @@ public final class AnalyzeCommand implements Callable<Integer> {
                     err.println("risetrace: warning: " + boardFile + ": outline.frames names frame '" + name
                             + "', which is not in the series; its corners are not used");
         if (mode == Mode.lock_in || (mode == Mode.auto && LockInAnalyzer.periodic(s))) return lockIn(s, b, boardFile, options, err);
+        long opened = System.nanoTime();
         Analysis a = SeriesAnalyzer.analyze(s, b, boardFile, series.toString(), options,
                 SeriesAnalyzer.emissivity(s.profile()), tunables.threads(), progress(err));
+        long analysed = System.nanoTime();
         warnLeftOut(a, err);
         writeOutputs(a, dir, s.sidecar() == null ? null : s.sidecar().notes(), output.force);
+        if (Boolean.getBoolean("risetrace.timing")) // where a cold run's time goes (DEVELOPERS.md "Cold start")
+            err.printf(Locale.ROOT, "risetrace: timing: JVM start to open done %.2f s, analysis %.2f s, report %.2f s%n",
+                    java.lang.management.ManagementFactory.getRuntimeMXBean().getUptime() / 1e3
+                            - (System.nanoTime() - opened) / 1e9, (analysed - opened) / 1e9,
+                    (System.nanoTime() - analysed) / 1e9);
         if (output.json) {
             PrintWriter o = spec.commandLine().getOut();
             o.println(toJson(a));

@@ -21,7 +21,7 @@ import picocli.CommandLine.Command;
                 DemoCommand.class,
                 CalibrateCommand.class,
                 PlanCommand.class, ReadingsCommand.class,
-                BatchCommand.class,
+                BatchCommand.class, BenchCommand.class,
                 ServeCommand.class,
                 CaseCommand.class,
                 CommandLine.HelpCommand.class})

@@ -10,14 +10,12 @@ import org.jfree.chart.axis.NumberTickUnit;
 import org.jfree.chart.block.BlockBorder;
 import org.jfree.chart.plot.ValueMarker;
 import org.jfree.chart.plot.XYPlot;
-import org.jfree.chart.renderer.xy.XYBlockRenderer;
 import org.jfree.chart.renderer.xy.XYLineAndShapeRenderer;
 import org.jfree.chart.title.LegendTitle;
 import org.jfree.chart.title.PaintScaleLegend;
 import org.jfree.chart.ui.RectangleEdge;
 import org.jfree.chart.ui.RectangleInsets;
 import org.jfree.chart.ui.TextAnchor;
-import org.jfree.data.xy.DefaultXYZDataset;
 import org.jfree.data.xy.XYSeries;
 import org.jfree.data.xy.XYSeriesCollection;
 import org.risetrace.analysis.FrameRecord;
@@ -32,6 +30,7 @@ import java.awt.Shape;
 import java.awt.geom.Ellipse2D;
 import java.awt.geom.Path2D;
 import java.awt.geom.Rectangle2D;
+import java.awt.image.BufferedImage;
 import java.io.IOException;
 import java.io.UncheckedIOException;
 import java.util.Arrays;
@@ -100,32 +99,56 @@ final class Plots {
         return png(mapChart(grid, shading, parts, hotspots), WIDTH_PX, mapHeightPx(grid.boardWMm(), grid.boardHMm()));
     }
 
-    /** The map as a chart: blocks coloured by the scale, part outlines and designators, hot spot rings. */
-    static JFreeChart mapChart(Grid grid, Shading shading, List<Part> parts, List<Hotspot> hotspots) {
-        int f = Math.max(1, (int) Math.ceil(grid.width() / (double) MAX_BLOCKS_ACROSS));
+    /**
+     * The map's values as an image, one pixel per bin: maps finer than {@link #MAX_BLOCKS_ACROSS} across are averaged
+     * into square bins of {@code f} x {@code f} grid cells; each bin's mean is coloured through the colour map's
+     * 256-entry table (the same colour {@link ColourScale} gives the scale bar); a bin without a value is transparent,
+     * so the plot's hatching shows through.
+     */
+    static BufferedImage mapImage(Grid grid, Shading shading) {
+        int f = binSize(grid);
         int bw = (grid.width() + f - 1) / f, bh = (grid.height() + f - 1) / f;
-        double[] x = new double[bw * bh], y = new double[bw * bh], z = new double[bw * bh];
-        int n = 0;
+        ColourScale scale = new ColourScale(shading.map(), shading.lower(), shading.upper(), shading.reversed());
+        double lower = scale.getLowerBound(), span = scale.getUpperBound() - lower;
+        int[] lut = shading.map().table();
+        int[] argb = new int[bw * bh];
+        float[] values = grid.values();
         for (int bj = 0; bj < bh; bj++) {
+            int j0 = bj * f, j1 = Math.min(grid.height(), j0 + f);
             for (int bi = 0; bi < bw; bi++) {
+                int i0 = bi * f, i1 = Math.min(grid.width(), i0 + f);
                 double sum = 0;
                 int count = 0;
-                for (int j = bj * f; j < Math.min(grid.height(), (bj + 1) * f); j++)
-                    for (int i = bi * f; i < Math.min(grid.width(), (bi + 1) * f); i++) {
-                        float v = grid.values()[j * grid.width() + i];
+                for (int j = j0; j < j1; j++)
+                    for (int i = i0; i < i1; i++) {
+                        float v = values[j * grid.width() + i];
                         if (!Float.isNaN(v)) { sum += v; count++; }
                     }
-                if (count == 0) continue;
-                int i0 = bi * f, i1 = Math.min(grid.width(), (bi + 1) * f);
-                int j0 = bj * f, j1 = Math.min(grid.height(), (bj + 1) * f);
-                x[n] = (i0 + i1) / 2.0 / grid.pxPerMm();
-                y[n] = (j0 + j1) / 2.0 / grid.pxPerMm();
-                z[n] = sum / count;
-                n++;
+                if (count == 0) continue;  // transparent
+                double t = (sum / count - lower) / span;
+                if (shading.reversed()) t = 1 - t;
+                int k = (int) Math.round(Math.max(0, Math.min(1, t)) * (lut.length - 1));
+                argb[bj * bw + bi] = 0xff000000 | lut[k];
             }
         }
-        DefaultXYZDataset data = new DefaultXYZDataset();
-        data.addSeries("map", new double[][]{Arrays.copyOf(x, n), Arrays.copyOf(y, n), Arrays.copyOf(z, n)});
+        BufferedImage img = new BufferedImage(bw, bh, BufferedImage.TYPE_INT_ARGB);
+        img.setRGB(0, 0, bw, bh, argb, 0, bw);
+        return img;
+    }
+
+    /** Grid cells per bin side: 1 up to {@link #MAX_BLOCKS_ACROSS} cells across, else enough to stay under it. */
+    static int binSize(Grid grid) {
+        return Math.max(1, (int) Math.ceil(grid.width() / (double) MAX_BLOCKS_ACROSS));
+    }
+
+    /**
+     * The map as a chart: the values drawn as one image (nearest neighbour, one image pixel per bin) under the
+     * chart's axes and colour scale, part outlines and designators, hot spot rings. Drawing the image straight
+     * replaced one chart block per bin (tens of thousands of filled shapes, about a second per report cold).
+     */
+    static JFreeChart mapChart(Grid grid, Shading shading, List<Part> parts, List<Hotspot> hotspots) {
+        int f = binSize(grid);
+        BufferedImage image = mapImage(grid, shading);
 
         NumberAxis xAxis = mmAxis("x (mm)");
         NumberAxis yAxis = mmAxis("y (mm)");
@@ -136,14 +159,11 @@ final class Plots {
         xAxis.setTickUnit(new NumberTickUnit(step));
         yAxis.setTickUnit(new NumberTickUnit(step));
 
-        XYBlockRenderer renderer = new XYBlockRenderer();
-        // blocks a hair wider than the bin hide the hairline seams anti-aliasing leaves between neighbours
-        renderer.setBlockWidth(f / grid.pxPerMm() * 1.04);
-        renderer.setBlockHeight(f / grid.pxPerMm() * 1.04);
         ColourScale scale = new ColourScale(shading.map(), shading.lower(), shading.upper(), shading.reversed());
-        renderer.setPaintScale(scale);
-
-        XYPlot plot = new XYPlot(data, xAxis, yAxis, renderer);
+        XYPlot plot = new XYPlot(null, xAxis, yAxis, null);
+        // bin (bi, bj) covers [bi f, (bi + 1) f) grid cells, cell i spanning [i, i + 1) / pxPerMm mm
+        plot.addAnnotation(new MapImageAnnotation(image, image.getWidth() * f / grid.pxPerMm(),
+                image.getHeight() * f / grid.pxPerMm()));
         plot.setBackgroundPaint(NO_VALUE);
         plot.setDomainGridlinesVisible(false);
         plot.setRangeGridlinesVisible(false);
@@ -197,6 +217,43 @@ final class Plots {
         legend.setBackgroundPaint(Color.WHITE);
         chart.addSubtitle(legend);
         return chart;
+    }
+
+    /**
+     * Draws an image over the board rectangle [0, wMm] x [0, hMm] in data coordinates (nearest neighbour: each image
+     * pixel stays a sharp square, as the map's bins are).
+     */
+    static final class MapImageAnnotation extends org.jfree.chart.annotations.AbstractXYAnnotation {
+        private static final long serialVersionUID = 1L;
+        private final transient BufferedImage image;
+        private final double wMm, hMm;
+
+        MapImageAnnotation(BufferedImage image, double wMm, double hMm) {
+            this.image = image;
+            this.wMm = wMm;
+            this.hMm = hMm;
+        }
+
+        @Override
+        public void draw(java.awt.Graphics2D g2, XYPlot plot, Rectangle2D dataArea,
+                         org.jfree.chart.axis.ValueAxis domainAxis, org.jfree.chart.axis.ValueAxis rangeAxis,
+                         int rendererIndex, org.jfree.chart.plot.PlotRenderingInfo info) {
+            double xa = domainAxis.valueToJava2D(0, dataArea, plot.getDomainAxisEdge());
+            double xb = domainAxis.valueToJava2D(wMm, dataArea, plot.getDomainAxisEdge());
+            double ya = rangeAxis.valueToJava2D(0, dataArea, plot.getRangeAxisEdge());
+            double yb = rangeAxis.valueToJava2D(hMm, dataArea, plot.getRangeAxisEdge());
+            java.awt.geom.AffineTransform at = new java.awt.geom.AffineTransform(
+                    (xb - xa) / image.getWidth(), 0, 0, (yb - ya) / image.getHeight(), xa, ya);
+            Object hint = g2.getRenderingHint(java.awt.RenderingHints.KEY_INTERPOLATION);
+            g2.setRenderingHint(java.awt.RenderingHints.KEY_INTERPOLATION,
+                    java.awt.RenderingHints.VALUE_INTERPOLATION_NEAREST_NEIGHBOR);
+            g2.drawImage(image, at, null);
+            if (hint != null) g2.setRenderingHint(java.awt.RenderingHints.KEY_INTERPOLATION, hint);
+        }
+
+        @Override public boolean equals(Object o) { return o == this; }
+
+        @Override public int hashCode() { return System.identityHashCode(this); }
     }
 
     /** Labels sit just above the part, so hot spot rings at its centre never hide them. */

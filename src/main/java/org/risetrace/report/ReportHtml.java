@@ -129,6 +129,7 @@ public final class ReportHtml {
         double boardH = board != null && board.sizeMm() != null ? board.heightMm() : Double.NaN;
 
         StringBuilder h = new StringBuilder(1 << 20);
+        Figures figs = new Figures();
         h.append("<!DOCTYPE html>\n<html lang=\"en\">\n<head>\n<meta charset=\"utf-8\">\n")
                 .append("<meta name=\"viewport\" content=\"width=device-width, initial-scale=1\">\n")
                 .append("<title>").append(esc(titleOf(a))).append("</title>\n<style>\n").append(CSS)
@@ -193,7 +194,7 @@ public final class ReportHtml {
                 c[i] = last.valid() == null || last.valid()[i] ? last.celsius()[i] : Float.NaN;
             double[] range = percentiles(c, 0.01, 0.995);
             Plots.Grid g = grid(last.width(), last.height(), last.pxPerMm(), c, boardW, boardH);
-            figure(h, Plots.mapPng(g, new Plots.Shading(ColourMaps.EMBER, range[0], range[1], false,
+            figure(h, figs, () -> Plots.mapPng(g, new Plots.Shading(ColourMaps.EMBER, range[0], range[1], false,
                             "apparent temperature (\u00b0C)"), parts, null),
                     "Last frame", "The last usable frame, rectified onto the board, in apparent temperature ("
                             + ColourMaps.EMBER.word() + " colour map: darker is cooler). Hatched: outside the frame."
@@ -206,7 +207,7 @@ public final class ReportHtml {
             double[] range = percentiles(rise.values(), 0.0, 1.0);
             double upper = Math.max(range[1], 0.05);
             Plots.Grid g = grid(rise.width(), rise.height(), rise.pxPerMm(), rise.values(), boardW, boardH);
-            figure(h, Plots.mapPng(g, new Plots.Shading(ColourMaps.EMBER, Math.min(0, Math.max(range[0], -upper)),
+            figure(h, figs, () -> Plots.mapPng(g, new Plots.Shading(ColourMaps.EMBER, Math.min(0, Math.max(range[0], -upper)),
                             upper, false, "rise above ambient (K)"), parts, hotspots),
                     "Rise map", "Rise above ambient at the end of the series (" + ColourMaps.EMBER.word()
                             + " colour map). Rings mark the hot spots, numbered as in the hot spot table"
@@ -220,7 +221,7 @@ public final class ReportHtml {
         if (onset != null && hasFinite(onset.values())) {
             double[] range = percentiles(onset.values(), 0.0, 1.0);
             Plots.Grid g = grid(onset.width(), onset.height(), onset.pxPerMm(), onset.values(), boardW, boardH);
-            figure(h, Plots.mapPng(g, new Plots.Shading(ColourMaps.TIDE, range[0], Math.max(range[1], range[0] + 1),
+            figure(h, figs, () -> Plots.mapPng(g, new Plots.Shading(ColourMaps.TIDE, range[0], Math.max(range[1], range[0] + 1),
                             true, "onset after injection start (s)"), parts, null),
                     "Onset map", "When each point first rose above the noise threshold (" + ColourMaps.TIDE.word()
                             + " colour map, earliest lightest). The earliest region points at the source even after "
@@ -238,7 +239,8 @@ public final class ReportHtml {
         if (!comparison && anyCurve) {
             h.append("<section><h2>Rise over time</h2>\n");
             Double start = r.injection() == null ? null : r.injection().startS();
-            figure(h, Plots.curvesPng(shown, start), "Rise curves", "Rise above ambient of the "
+            List<RiseCurve> drawn = List.copyOf(shown);
+            figure(h, figs, () -> Plots.curvesPng(drawn, start), "Rise curves", "Rise above ambient of the "
                     + (shown.size() == 1 ? "leading part" : shown.size() + " leading parts") + curvesCaption(shown));
             h.append("</section>\n");
         }
@@ -321,7 +323,7 @@ public final class ReportHtml {
         h.append("<section><h2>Registration and source frames</h2>\n");
         long usable = frames.stream().filter(f -> Double.isFinite(Plots.registrationValue(f))).count();
         if (usable >= 3)
-            figure(h, Plots.registrationPng(frames), "Registration: estimated corner error",
+            figure(h, figs, () -> Plots.registrationPng(frames), "Registration: estimated corner error",
                     "Estimated RMS error of the four board corners per frame (corner_sigma_px: the alignment's own"
                             + " uncertainty and the check patches' implied correction, calibrated on simulated series with"
                             + " known truth); where a frame has no estimate, the check patches' residual RMS.");
@@ -365,7 +367,7 @@ public final class ReportHtml {
                 .append(esc(r.version())).append(" on ").append(esc(r.createdUtc())).append(", schema ")
                 .append(esc(r.schema())).append(". The numbers behind this page are in analysis.json and parts.csv ")
                 .append("beside it.</p></footer>\n</main>\n</body>\n</html>\n");
-        return h.toString();
+        return figs.fill(h.toString());
     }
 
     /** The injection plan of the series' injection record (risetrace plan --write-series), when it has one. */
@@ -545,9 +547,11 @@ public final class ReportHtml {
         h.append("<div><dt>").append(esc(term)).append("</dt><dd>").append(esc(value)).append("</dd></div>\n");
     }
 
-    private static void figure(StringBuilder h, byte[] png, String alt, String caption) {
+    /** A figure whose PNG is rendered beside the rest of the page (see {@link Figures}). */
+    private static void figure(StringBuilder h, Figures figs, java.util.concurrent.Callable<byte[]> png, String alt,
+                               String caption) {
         h.append("<figure><img alt=\"").append(esc(alt)).append("\" width=\"").append(Plots.WIDTH_PX)
-                .append("\" src=\"data:image/png;base64,").append(Base64.getEncoder().encodeToString(png))
+                .append("\" src=\"data:image/png;base64,").append(figs.add(png))
                 .append("\"><figcaption>").append(esc(caption)).append("</figcaption></figure>\n");
     }
 

@@ -136,25 +136,32 @@ class ReportHtmlTest {
         int w = 1000, h = 500;  // 100 x 50 mm at 10 px/mm
         float[] v = new float[w * h];
         for (int i = 0; i < v.length; i++) v[i] = (i % w) < w / 2 ? 1f : 3f;
-        JFreeChart chart = Plots.mapChart(new Plots.Grid(w, h, 10.0, v, 100, 50),
-                new Plots.Shading(ColourMaps.EMBER, 0, 3, false, "K"), List.of(), null);
-        org.jfree.data.xy.XYZDataset data = (org.jfree.data.xy.XYZDataset) chart.getXYPlot().getDataset();
-        // by hand: whole-pixel square blocks, the smallest that keep 1000 px within 240 across: 4 px would give 250,
-        // so 5 px, 200 blocks across and 100 down
-        java.util.Set<Double> xs = new java.util.TreeSet<>(), ys = new java.util.TreeSet<>();
-        for (int k = 0; k < data.getItemCount(0); k++) {
-            xs.add(data.getXValue(0, k));
-            ys.add(data.getYValue(0, k));
-        }
-        assertEquals(200, xs.size());
-        assertEquals(100, ys.size());
-        assertEquals(200 * 100, data.getItemCount(0));
-        assertTrue(xs.size() <= Plots.MAX_BLOCKS_ACROSS);
-        // a bin's value is the mean of its pixels: the bins left of x = 50 mm hold 1 K, right of it 3 K
-        for (int k = 0; k < data.getItemCount(0); k++) {
-            double x = data.getXValue(0, k), z = data.getZValue(0, k);
-            assertEquals(x < 50 ? 1.0 : 3.0, z, 1e-6, "bin at x = " + x);
-        }
+        BufferedImage img = Plots.mapImage(new Plots.Grid(w, h, 10.0, v, 100, 50),
+                new Plots.Shading(ColourMaps.EMBER, 0, 3, false, "K"));
+        int bin = 5; // by hand: whole-pixel square blocks, the smallest that keep 1000 px within 240 across (4 px would give 250)
+        assertEquals(200, img.getWidth());
+        assertEquals(100, img.getHeight());
+        // a bin's value is the mean of its pixels: the bins left of x = 50 mm hold 1 K, right of it 3 K, coloured
+        // through the colour map's table at (value - lower) / (upper - lower)
+        int one = ColourMaps.EMBER.rgb(1 / 3.0), three = ColourMaps.EMBER.rgb(1.0);
+        for (int bj = 0; bj < img.getHeight(); bj++)
+            for (int bi = 0; bi < img.getWidth(); bi++) {
+                double xMm = (bi + 0.5) * bin / 10.0;
+                assertEquals(0xff000000 | (xMm < 50 ? one : three), img.getRGB(bi, bj), "bin at x = " + xMm);
+            }
+    }
+
+    @Test
+    void mapBinsWithoutValueAreTransparentSoTheHatchingShows() {
+        int w = 20, h = 10;
+        float[] v = new float[w * h];
+        java.util.Arrays.fill(v, Float.NaN);
+        v[0] = 2f;  // one cell with a value
+        BufferedImage img = Plots.mapImage(new Plots.Grid(w, h, 2.0, v, 10, 5),
+                new Plots.Shading(ColourMaps.TIDE, 0, 4, true, "s"));
+        assertEquals(0xff000000 | ColourMaps.TIDE.rgb(0.5), img.getRGB(0, 0));  // reversed: 1 - 0.5
+        assertEquals(0, img.getRGB(1, 0) >>> 24, "no value: fully transparent");
+        assertEquals(0, img.getRGB(w - 1, h - 1) >>> 24);
     }
 
     private static int[] pixelAt(BufferedImage img, XYPlot plot, Rectangle2D area, double xMm, double yMm) {

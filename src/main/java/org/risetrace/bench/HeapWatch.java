@@ -1,0 +1,88 @@
+package org.risetrace.bench;
+
+import com.sun.management.GarbageCollectionNotificationInfo;
+
+import javax.management.NotificationEmitter;
+import javax.management.NotificationListener;
+import javax.management.openmbean.CompositeData;
+import java.lang.management.GarbageCollectorMXBean;
+import java.lang.management.ManagementFactory;
+import java.lang.management.MemoryPoolMXBean;
+import java.lang.management.MemoryType;
+import java.lang.management.MemoryUsage;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Map;
+
+/**
+ * Heap use while something runs, from the JVM's own management beans: the peak of every heap pool
+ * ({@link MemoryPoolMXBean#getPeakUsage}, summed: what the heap had to hold including garbage not yet collected) and
+ * the largest heap left after any collection (the collector's notifications: the live data, what the heap needs).
+ */
+final class HeapWatch implements AutoCloseable {
+    private final List<MemoryPoolMXBean> pools = new ArrayList<>();
+    private final List<NotificationEmitter> emitters = new ArrayList<>();
+    private volatile long maxAfterGc;
+    private final NotificationListener listener = (n, h) -> {
+        if (!GarbageCollectionNotificationInfo.GARBAGE_COLLECTION_NOTIFICATION.equals(n.getType())) return;
+        GarbageCollectionNotificationInfo info = GarbageCollectionNotificationInfo.from((CompositeData) n.getUserData());
+        long used = 0;
+        for (Map.Entry<String, MemoryUsage> e : info.getGcInfo().getMemoryUsageAfterGc().entrySet())
+            if (isHeap(e.getKey())) used += e.getValue().getUsed();
+        synchronized (this) {
+            maxAfterGc = Math.max(maxAfterGc, used);
+        }
+    };
+
+    HeapWatch() {
+        for (MemoryPoolMXBean p : ManagementFactory.getMemoryPoolMXBeans())
+            if (p.getType() == MemoryType.HEAP) pools.add(p);
+        System.gc();
+        for (MemoryPoolMXBean p : pools) p.resetPeakUsage();
+        for (GarbageCollectorMXBean gc : ManagementFactory.getGarbageCollectorMXBeans())
+            if (gc instanceof NotificationEmitter e) {
+                e.addNotificationListener(listener, null, null);
+                emitters.add(e);
+            }
+    }
+
+    private boolean isHeap(String pool) {
+        for (MemoryPoolMXBean p : pools) if (p.getName().equals(pool)) return true;
+        return false;
+    }
+
+    /** Heap in use after full collections (three, until it stops falling), bytes. */
+    static long usedAfterFullGc() {
+        long used = Long.MAX_VALUE;
+        for (int i = 0; i < 3; i++) {
+            System.gc();
+            long now = ManagementFactory.getMemoryMXBean().getHeapMemoryUsage().getUsed();
+            if (now >= used) break;
+            used = now;
+        }
+        return used;
+    }
+
+    /** Sum of the heap pools' peaks since this watch began, bytes. */
+    long poolPeakBytes() {
+        long sum = 0;
+        for (MemoryPoolMXBean p : pools) sum += p.getPeakUsage().getUsed();
+        return sum;
+    }
+
+    /** The largest heap in use right after a collection since this watch began, bytes (0 if none ran). */
+    long maxAfterGcBytes() {
+        return maxAfterGc;
+    }
+
+    @Override
+    public void close() {
+        for (NotificationEmitter e : emitters) {
+            try {
+                e.removeNotificationListener(listener);
+            } catch (javax.management.ListenerNotFoundException ignored) {
+                // already gone
+            }
+        }
+    }
+}

@@ -98,10 +98,7 @@ public final class CompareCommand implements Callable<Integer> {
         Path folder = before.toAbsolutePath().getParent();
         Path sidecar = folder.resolve("series.json");
         Series s = Series.open(List.of(before, after), Files.isRegularFile(sidecar) ? sidecar : null, profile);
-        // two frames picked from a capture: the sidecar's other entries are expected to be left out
-        for (String w : s.warnings())
-            if (!w.contains("not among the frames read") && !w.contains("which is not in the series"))
-                err.println("risetrace: " + w);
+        for (String w : s.warnings()) err.println("risetrace: " + w);
         int ib = s.fileName(0).equals(before.getFileName().toString()) ? 0 : 1;
         Frame fb = s.read(ib), fa = s.read(1 - ib);
         Path boardFile = board != null ? board : folder.resolve("board.json");

@@ -119,6 +119,26 @@ class OutputFindingsTest {
     }
 
     @Test
+    void aFolderMissingSomeOfItsSidecarsFramesSaysSoOnceButPickedFramesDoNot(@TempDir Path dir) throws IOException {
+        Path copy = dir.resolve("phase-short");
+        Files.createDirectories(copy);
+        try (var files = Files.list(PHASE_SHORT)) {
+            for (Path f : files.toList()) Files.copy(f, copy.resolve(f.getFileName()));
+        }
+        Files.delete(copy.resolve("f0010.png"));
+        Files.delete(copy.resolve("f0011.png"));
+        // a folder read as a series: the two entries series.json lists without frames, in one line
+        java.util.List<String> folder = Series.open(copy).warnings();
+        assertEquals(1, folder.stream().filter(w -> w.contains("series.json lists")).count(), folder.toString());
+        assertTrue(folder.toString().contains("lists 2 frames that are not among the frames read ('f0010.png' to 'f0011.png')"),
+                folder.toString());
+        // two frames picked from it (compare, frame-view): the other 87 entries are left out on purpose
+        java.util.List<String> picked = Series.open(java.util.List.of(copy.resolve("f0001.png"), copy.resolve("f0090.png")),
+                copy.resolve("series.json"), null).warnings();
+        assertTrue(picked.stream().noneMatch(w -> w.contains("series.json lists")), picked.toString());
+    }
+
+    @Test
     void compareHelpOffersOnlyWhatAComparisonUses() {
         InspectCommandTest.Result r = InspectCommandTest.run("compare", "--help");
         assertEquals(Main.EXIT_OK, r.code());

@@ -38,6 +38,16 @@ public final class BoardFile {
     private BoardFile() {
     }
 
+    /** Builds the board file's JSON reader ahead of the first file (see {@code Sidecars.warmUp}). Never fails. */
+    public static void warmUp() {
+        try {
+            MAPPER.readTree("{}");
+            MAPPER.readValue("{}", Board.class);
+        } catch (Exception | LinkageError ignored) {
+            // only a head start: read() reads (and reports) on its own
+        }
+    }
+
     /**
      * Reads and validates a board file, outline included.
      *

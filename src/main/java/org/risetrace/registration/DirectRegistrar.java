@@ -118,8 +118,8 @@ final class DirectRegistrar implements Registrar {
                         + ref.width + "x" + ref.height);
             Workspace ws = workspace.get();
             if (shared == null) {
-                double mean = ws.pyramid.build(frame.celsius(), frame.width(), frame.height(), ref.levels);
-                if (Double.isNaN(mean)) return failed(frame, "frame holds no readings");
+                if (!ws.pyramid.build(frame.celsius(), frame.width(), frame.height(), ref.levels))
+                    return failed(frame, "frame holds no readings");
                 double texture = spread(ws.pyramid.bandPass[0]);
                 if (texture < 0.05 * ref.referenceBandStd)
                     return failed(frame, "frame is uniform: no texture to register");

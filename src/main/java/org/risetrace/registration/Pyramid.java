@@ -16,7 +16,7 @@ final class Pyramid {
     /** The local mean that the band-pass removed (smoothed minus band-passed): where heat shows, not texture. */
     float[][] lowPass = new float[0][];
     private float[][] smooth = new float[0][];
-    private float[] filled = new float[0], t1 = new float[0], t2 = new float[0];
+    private float[] filled = new float[0], t1 = new float[0];
 
     /** Number of levels for a frame of this size: the top level keeps at least 24 px on its short side. */
     static int autoLevels(int w, int h) {
@@ -25,26 +25,23 @@ final class Pyramid {
         return n;
     }
 
-    /** Builds the pyramid; returns the mean of the finite input pixels (NaN when there are none). */
-    double build(float[] celsius, int w, int h, int nLevels) {
+    /** Builds the pyramid; returns false when the frame holds no finite pixel (nothing to build from). */
+    boolean build(float[] celsius, int w, int h, int nLevels) {
         if (levels != nLevels || widths.length == 0 || widths[0] != w || heights[0] != h) allocate(w, h, nLevels);
-        double sum = 0;
-        int finite = 0;
-        for (float v : celsius) if (Float.isFinite(v)) { sum += v; finite++; }
-        double mean = finite == 0 ? Double.NaN : sum / finite;
+        // v - v is 0 for a finite v and NaN for NaN and the infinities: a third of the time of a running mean
+        boolean allFinite = true;
+        for (float v : celsius) if (v - v != 0) { allFinite = false; break; }
         float[] input = celsius;
-        if (finite < celsius.length) { // pixels without a reading take the mean (a copy only then)
-            Filters.fillInvalid(celsius, filled);
+        if (!allFinite) { // pixels without a reading take the mean of the others (a copy only then)
+            if (Double.isNaN(Filters.fillInvalid(celsius, filled))) return false;
             input = filled;
         }
         Filters.gaussian1(input, smooth[0], t1, w, h);
         for (int l = 0; l < levels; l++) {
             if (l > 0) Filters.halve(smooth[l - 1], widths[l - 1], heights[l - 1], smooth[l], widths[l], heights[l]);
-            Filters.highPass(smooth[l], bandPass[l], t1, t2, widths[l], heights[l], HIGH_PASS_RADIUS);
-            float[] s = smooth[l], b = bandPass[l], lp = lowPass[l];
-            for (int i = 0; i < lp.length; i++) lp[i] = s[i] - b[i];
+            Filters.highPass(smooth[l], bandPass[l], lowPass[l], t1, widths[l], heights[l], HIGH_PASS_RADIUS);
         }
-        return mean;
+        return true;
     }
 
     private void allocate(int w, int h, int n) {
@@ -63,7 +60,6 @@ final class Pyramid {
         }
         filled = new float[w * h];
         t1 = new float[w * h];
-        t2 = new float[w * h];
     }
 
     /** Scale factor s = 2^level. */

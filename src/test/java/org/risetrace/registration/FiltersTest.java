@@ -64,8 +64,8 @@ class FiltersTest {
         for (int[] size : new int[][]{{45, 31}, {6, 11}, {13, 2}}) {
             int w = size[0], h = size[1], r = 4;
             float[] src = random(w * h, w * 7L + h);
-            float[] dst = new float[w * h], t1 = new float[w * h], t2 = new float[w * h];
-            Filters.highPass(src, dst, t1, t2, w, h, r);
+            float[] dst = new float[w * h], low = new float[w * h], t2 = new float[w * h];
+            Filters.highPass(src, dst, low, t2, w, h, r);
             // the definition: two box means (each the direct average, clamped borders), subtracted from the source
             double[] once = new double[w * h];
             for (int y = 0; y < h; y++)
@@ -80,8 +80,9 @@ class FiltersTest {
                     double s = 0;
                     for (int j = -r; j <= r; j++)
                         for (int i = -r; i <= r; i++) s += once[clamp(y + j, h) * w + clamp(x + i, w)];
-                    double expected = src[y * w + x] - s / ((2 * r + 1) * (2 * r + 1));
-                    assertEquals(expected, dst[y * w + x], 1e-3, w + "x" + h + " at " + x + "," + y);
+                    double mean = s / ((2 * r + 1) * (2 * r + 1));
+                    assertEquals(src[y * w + x] - mean, dst[y * w + x], 1e-3, w + "x" + h + " at " + x + "," + y);
+                    assertEquals(mean, low[y * w + x], 1e-3, "local mean, " + w + "x" + h + " at " + x + "," + y);
                 }
         }
     }

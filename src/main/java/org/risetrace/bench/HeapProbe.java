@@ -15,8 +15,9 @@ import java.util.Locale;
 /**
  * The child process of {@code risetrace bench} that measures the heap: analyses one series (analysis and report, as
  * {@code analyze} does) under the heap limit its parent gave the JVM and prints one line
- * {@code frames=N seconds=S pool_peak_bytes=P after_gc_max_bytes=G live_max_bytes=L retained_bytes=R verdict=V}:
- * P the heap pools' peaks (garbage included), G the largest heap after any collection (a young collection leaves
+ * {@code frames=N seconds=S peak_in_use_bytes=U pool_peak_bytes=P after_gc_max_bytes=G live_max_bytes=L
+ * retained_bytes=R verdict=V}: U the peak of the heap in use (all pools at one moment, garbage included), P the sum
+ * of the pools' own peaks (reached at different moments), G the largest heap after any collection (a young collection leaves
  * old garbage), L the largest heap after a full collection at ten moments of the run (each tenth of the frames),
  * R the heap still in use after a full collection with the result held; L and R less the heap in use before.
  */
@@ -42,10 +43,11 @@ public final class HeapProbe {
                     sampler);
             Reports.writeAll(a, out, null, true);
             double seconds = (System.nanoTime() - t0) / 1e9;
-            long pool = watch.poolPeakBytes(), afterGc = watch.maxAfterGcBytes();
+            long peak = watch.peakInUseBytes(), pool = watch.poolPeakBytes(), afterGc = watch.maxAfterGcBytes();
             long retained = HeapWatch.usedAfterFullGc() - before;
-            System.out.printf(Locale.ROOT, "frames=%d seconds=%.4f pool_peak_bytes=%d after_gc_max_bytes=%d "
-                            + "live_max_bytes=%d retained_bytes=%d verdict=%s%n", s.size(), seconds, pool, afterGc,
+            System.out.printf(Locale.ROOT, "frames=%d seconds=%.4f peak_in_use_bytes=%d pool_peak_bytes=%d "
+                            + "after_gc_max_bytes=%d live_max_bytes=%d retained_bytes=%d verdict=%s%n", s.size(), seconds,
+                    peak, pool, afterGc,
                     live[0] - before, retained, a.result().verdict().status().word());
             java.lang.ref.Reference.reachabilityFence(a);
         }

@@ -15,22 +15,27 @@ import java.util.List;
 import java.util.Map;
 
 /**
- * Heap use while something runs, from the JVM's own management beans: the peak of every heap pool
- * ({@link MemoryPoolMXBean#getPeakUsage}, summed: what the heap had to hold including garbage not yet collected) and
- * the largest heap left after any collection (the collector's notifications: the live data, what the heap needs).
+ * Heap use while something runs, from the JVM's own management beans: the peak of the heap in use (every pool at
+ * the same moment, just before each collection, when the heap is fullest, and at the end: the collectors'
+ * notifications), the sum of every pool's own peak ({@link MemoryPoolMXBean#getPeakUsage}; the pools peak at
+ * different moments, so this overstates the heap's peak) and the largest heap left after any collection (the live
+ * data, what the heap needs).
  */
 final class HeapWatch implements AutoCloseable {
     private final List<MemoryPoolMXBean> pools = new ArrayList<>();
     private final List<NotificationEmitter> emitters = new ArrayList<>();
-    private volatile long maxAfterGc;
+    private volatile long maxAfterGc, maxBeforeGc;
     private final NotificationListener listener = (n, h) -> {
         if (!GarbageCollectionNotificationInfo.GARBAGE_COLLECTION_NOTIFICATION.equals(n.getType())) return;
         GarbageCollectionNotificationInfo info = GarbageCollectionNotificationInfo.from((CompositeData) n.getUserData());
-        long used = 0;
+        long used = 0, before = 0;
         for (Map.Entry<String, MemoryUsage> e : info.getGcInfo().getMemoryUsageAfterGc().entrySet())
             if (isHeap(e.getKey())) used += e.getValue().getUsed();
+        for (Map.Entry<String, MemoryUsage> e : info.getGcInfo().getMemoryUsageBeforeGc().entrySet())
+            if (isHeap(e.getKey())) before += e.getValue().getUsed();
         synchronized (this) {
             maxAfterGc = Math.max(maxAfterGc, used);
+            maxBeforeGc = Math.max(maxBeforeGc, before);
         }
     };
 
@@ -68,6 +73,17 @@ final class HeapWatch implements AutoCloseable {
         long sum = 0;
         for (MemoryPoolMXBean p : pools) sum += p.getPeakUsage().getUsed();
         return sum;
+    }
+
+    /**
+     * The peak of the heap in use since this watch began, bytes: the largest total of all pools just before a
+     * collection (allocation only adds between collections, so the heap is fullest then) or now.
+     */
+    long peakInUseBytes() {
+        long now = ManagementFactory.getMemoryMXBean().getHeapMemoryUsage().getUsed();
+        synchronized (this) {
+            return Math.max(maxBeforeGc, now);
+        }
     }
 
     /** The largest heap in use right after a collection since this watch began, bytes (0 if none ran). */

@@ -70,7 +70,9 @@ class BenchCommandTest {
         assertEquals("default", heap.get(2).get("heap_limit").asText());
         for (JsonNode h : heap)
             assertTrue(h.get("pool_peak_bytes").asLong() > 0 && h.get("live_max_bytes").asLong() > 0
-                    && h.get("ms_per_frame").asDouble() > 0, h.toString());
+                    && h.get("ms_per_frame").asDouble() > 0
+                    // the heap at its fullest holds at least what it kept after a collection
+                    && h.get("peak_in_use_bytes").asLong() >= h.get("after_gc_max_bytes").asLong(), h.toString());
         assertEquals(7, r.get("targets").size());
         // each target's value is the quotient it names, from the numbers above
         double worst = Double.POSITIVE_INFINITY;
@@ -81,6 +83,8 @@ class BenchCommandTest {
         assertEquals(heap.get(1).get("live_max_bytes").asDouble() / Math.max(heap.get(0).get("live_max_bytes").asDouble(),
                         heap.get(2).get("live_max_bytes").asDouble()),
                 r.get("targets").get(4).get("value").asDouble(), 1e-9);
+        assertEquals(heap.get(1).get("peak_in_use_bytes").asDouble() / heap.get(0).get("peak_in_use_bytes").asDouble(),
+                r.get("targets").get(5).get("value").asDouble(), 1e-9);
         try (Stream<Path> left = Files.list(dir)) {
             assertEquals(0, left.count(), "the generated series are removed");
         }
@@ -91,9 +95,9 @@ class BenchCommandTest {
         Bench.SeriesRow s = new Bench.SeriesRow("hand-held-png", 300, 50, 150, 60, 30, 55, 80L << 20, "identified Q1");
         Bench.Result r = new Bench.Result(2, "17", 1.0, 1.2, 640, 512, false, List.of(s),
                 new Bench.BatchRow(4, 1200, 20, 35, 36), List.of(new Bench.ColdRow("x", 3.5, "t")),
-                List.of(new Bench.HeapRow(300, "256m", 25, 200L << 20, 90L << 20, 60L << 20, 1L << 20, "identified"),
-                        new Bench.HeapRow(3000, "256m", 24, 210L << 20, 99L << 20, 62L << 20, 3L << 20, "identified"),
-                        new Bench.HeapRow(300, "default", 22, 300L << 20, 95L << 20, 61L << 20, 1L << 20, "identified")),
+                List.of(new Bench.HeapRow(300, "256m", 25, 180L << 20, 200L << 20, 90L << 20, 60L << 20, 1L << 20, "identified"),
+                        new Bench.HeapRow(3000, "256m", 24, 207L << 20, 210L << 20, 99L << 20, 62L << 20, 3L << 20, "identified"),
+                        new Bench.HeapRow(300, "default", 22, 250L << 20, 300L << 20, 95L << 20, 61L << 20, 1L << 20, "identified")),
                 null);
         r = new Bench.Result(r.cores(), r.java(), r.loadAverageBefore(), r.loadAverageAfter(), r.width(), r.height(),
                 r.quick(), r.series(), r.batch(), r.cold(), r.heap(), Bench.targets(r.series(), r.batch(), r.cold(), r.heap()));
@@ -108,5 +112,7 @@ class BenchCommandTest {
         assertTrue(t.lines().anyMatch(l -> l.startsWith("  met ") && l.contains("time per frame") && l.contains("1.09")), t);
         assertTrue(t.lines().anyMatch(l -> l.startsWith("  met ") && l.contains("live heap") && l.contains("1.02")), t);
         assertTrue(t.lines().anyMatch(l -> l.startsWith("  met ") && l.contains("cold analyze") && l.contains("3.50")), t);
+        // 207 MiB at its fullest against 180: 1.15, over 1.1
+        assertTrue(t.lines().anyMatch(l -> l.startsWith("  MISS") && l.contains("peak heap in use") && l.contains("1.15")), t);
     }
 }

@@ -37,6 +37,7 @@ final class DirectAligner {
             ReferenceModel.Level lv = ref.level[l];
             if (lv.n < 16) continue;
             ensure(lv.n);
+            if (l == 0) frame.ensureLevel0(ref, h.values());
             int params = Math.min(model, (l == ref.levels - 1 && l >= 2) ? 6 : 8);
             double[] hl = Pyramid.toLevel(h, l);
             int maxIter = l == 0 ? 10 : 20;
@@ -178,6 +179,7 @@ final class DirectAligner {
         if (lv.n < 16) return Double.NaN;
         ensure(lv.n);
         double[] H = h.normalized().values();
+        frame.ensureLevel0(ref, H);
         float[] img = frame.bandPass[0];
         int w = frame.widths[0], hh = frame.heights[0], n = lv.n, valid = 0;
         for (int i = 0; i < n; i++) {

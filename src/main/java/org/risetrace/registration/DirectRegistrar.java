@@ -120,8 +120,9 @@ final class DirectRegistrar implements Registrar {
             if (shared == null) {
                 if (!ws.pyramid.build(frame.celsius(), frame.width(), frame.height(), ref.levels))
                     return failed(frame, "frame holds no readings");
-                double texture = spread(ws.pyramid.bandPass[0]);
-                if (texture < 0.05 * ref.referenceBandStd)
+                // on level 1 (made over the whole frame; level 0 waits for a mapping), against the reference's own
+                double texture = Pyramid.spread(ws.pyramid.bandPass[Math.min(1, ref.levels - 1)]);
+                if (texture < 0.05 * ref.levelOneSpread)
                     return failed(frame, "frame is uniform: no texture to register");
                 int top = ref.levels - 1;
                 ws.topUnclipped = java.util.Arrays.copyOf(ws.pyramid.bandPass[top], ws.pyramid.bandPass[top].length);
@@ -182,6 +183,7 @@ final class DirectRegistrar implements Registrar {
                 if (features != null) {
                     if (ws.matcher == null) ws.matcher = new FeatureSet.Matcher(2.0);
                     int[] inl = new int[1];
+                    ws.pyramid.ensureLevel0All();
                     Homography f = ws.matcher.match(features, ws.pyramid.bandPass[0], ref.width, ref.height, inl);
                     if (f != null && plausibility(f) == null) best = attempt(ws, f, fast, best);
                 }
@@ -445,15 +447,6 @@ final class DirectRegistrar implements Registrar {
                 0, Double.NaN, Double.NaN);
     }
 
-    /** Standard deviation over every 3rd value (enough to tell a textured frame from a uniform one). */
-    private static double spread(float[] v) {
-        double s = 0, s2 = 0;
-        int n = 0;
-        for (int i = 0; i < v.length; i += 3) { float f = v[i]; s += f; s2 += f * f; n++; }
-        double m = s / n;
-        return Math.sqrt(Math.max(0, s2 / n - m * m));
-    }
-
     /** Null when the mapping of the board outline is plausible relative to the reference, else why not. */
     String plausibility(Homography refToFrame) {
         double[][] rc = ref.referenceCornersPx;
@@ -509,9 +502,10 @@ final class DirectRegistrar implements Registrar {
     Grade evaluate(Pyramid frame, Homography h, boolean converged, double alignVariance) {
         String implausible = plausibility(h);
         if (implausible != null) return new Grade(h, RegistrationStatus.FAILED, implausible, Double.NaN, Double.NaN, 0);
+        double[] m = h.values();
+        frame.ensureLevel0(ref, m);
         float[] img = frame.bandPass[0];
         int w = frame.widths[0], hh = frame.heights[0];
-        double[] m = h.values();
         int n = ref.scoreX.length, valid = 0;
         float[] fs = new float[n], diff = new float[n];
         for (int i = 0; i < n; i++) {

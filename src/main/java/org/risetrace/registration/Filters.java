@@ -66,58 +66,58 @@ final class Filters {
         }
     }
 
-    /** Box mean of radius r via running sums along rows then columns (borders clamped). */
-    static void boxMean(float[] src, float[] dst, float[] tmp, int w, int h, int r) {
-        boxRows(src, tmp, w, h, r);
-        boxCols(tmp, dst, null, null, w, h, r);
-    }
-
-    /** Rows of the box mean of radius r (running sums, borders clamped). */
-    private static void boxRows(float[] src, float[] tmp, int w, int h, int r) {
+    /**
+     * Rows of the box mean of radius r (running sums, borders clamped at the image's edges) for rows [ry0, ry1) and
+     * columns [cx0, cx1) only.
+     */
+    private static void boxRows(float[] src, float[] tmp, int w, int r, int cx0, int cx1, int ry0, int ry1) {
         float inv = 1f / (2 * r + 1);
-        for (int y = 0; y < h; y++) {
+        int last = w - 1;
+        for (int y = ry0; y < ry1; y++) {
             int row = y * w;
             float s = 0;
-            for (int i = -r; i <= r; i++) s += src[row + Math.min(w - 1, Math.max(0, i))];
-            int x = 0;
+            for (int i = -r; i <= r; i++) s += src[row + Math.min(last, Math.max(0, cx0 + i))];
+            int x = cx0;
             // left border: the sample leaving is clamped to the first pixel
-            for (; x < w && x - r < 0; x++) {
+            for (; x < cx1 && x - r < 0; x++) {
                 tmp[row + x] = s * inv;
-                s += src[row + Math.min(w - 1, x + r + 1)] - src[row];
+                s += src[row + Math.min(last, x + r + 1)] - src[row];
             }
             // interior: neither end clamped
-            for (; x + r + 1 <= w - 1; x++) {
+            for (; x < cx1 && x + r + 1 <= last; x++) {
                 tmp[row + x] = s * inv;
                 s += src[row + x + r + 1] - src[row + x - r];
             }
-            for (; x < w; x++) {
+            for (; x < cx1; x++) {
                 tmp[row + x] = s * inv;
-                s += src[row + w - 1] - src[row + Math.max(0, x - r)];
+                s += src[row + last] - src[row + Math.max(0, x - r)];
             }
         }
     }
 
     /**
-     * Columns of the box mean of radius r (running sums, borders clamped) into dst; when minuend is given, also
-     * minuend - dst into difference (the band-pass written in the same pass).
+     * Columns of the box mean of radius r (running sums, borders clamped at the image's edges) into dst for rows
+     * [ry0, ry1) and columns [cx0, cx1); when minuend is given, also minuend - dst into difference (the band-pass
+     * written in the same pass).
      */
-    private static void boxCols(float[] tmp, float[] dst, float[] minuend, float[] difference, int w, int h, int r) {
+    private static void boxCols(float[] tmp, float[] dst, float[] minuend, float[] difference, int w, int h, int r,
+                                int cx0, int cx1, int ry0, int ry1) {
         float inv = 1f / (2 * r + 1);
         float[] acc = new float[w];
         for (int i = -r; i <= r; i++) {
-            int yy = Math.min(h - 1, Math.max(0, i)) * w;
-            for (int x = 0; x < w; x++) acc[x] += tmp[yy + x];
+            int yy = Math.min(h - 1, Math.max(0, ry0 + i)) * w;
+            for (int x = cx0; x < cx1; x++) acc[x] += tmp[yy + x];
         }
-        for (int y = 0; y < h; y++) {
+        for (int y = ry0; y < ry1; y++) {
             int row = y * w;
             int add = Math.min(h - 1, y + r + 1) * w, sub = Math.max(0, y - r) * w;
             if (minuend == null) {
-                for (int x = 0; x < w; x++) {
+                for (int x = cx0; x < cx1; x++) {
                     dst[row + x] = acc[x] * inv;
                     acc[x] += tmp[add + x] - tmp[sub + x];
                 }
             } else {
-                for (int x = 0; x < w; x++) {
+                for (int x = cx0; x < cx1; x++) {
                     float m = acc[x] * inv;
                     dst[row + x] = m;
                     difference[row + x] = minuend[row + x] - m;
@@ -127,16 +127,36 @@ final class Filters {
         }
     }
 
+    /** Box mean of radius r via running sums along rows then columns (borders clamped). */
+    static void boxMean(float[] src, float[] dst, float[] tmp, int w, int h, int r) {
+        boxRows(src, tmp, w, r, 0, w, 0, h);
+        boxCols(tmp, dst, null, null, w, h, r, 0, w, 0, h);
+    }
+
     /**
      * Band-pass: the image minus its local mean (two box passes of radius r, close to a Gaussian of sigma
      * r * 0.8). Removes slow offsets such as the whole board warming, keeps edges and texture. The local mean is
      * kept in low (where heat shows rather than texture); tmp is scratch. The last pass writes both.
      */
     static void highPass(float[] src, float[] band, float[] low, float[] tmp, int w, int h, int r) {
-        boxRows(src, tmp, w, h, r);
-        boxCols(tmp, low, null, null, w, h, r);
-        boxRows(low, tmp, w, h, r);
-        boxCols(tmp, low, src, band, w, h, r);
+        highPass(src, band, low, tmp, w, h, r, 0, 0, w, h);
+    }
+
+    /**
+     * The band-pass and local mean of {@link #highPass(float[], float[], float[], float[], int, int, int)} made in
+     * the rectangle [ax, bx) x [ay, by) only, with the same values there (the filters still clamp at the image's
+     * edges, and read the source up to 2 r beyond the rectangle). Outside it, band is untouched and low and tmp hold
+     * intermediate values.
+     */
+    static void highPass(float[] src, float[] band, float[] low, float[] tmp, int w, int h, int r,
+                         int ax, int ay, int bx, int by) {
+        int wideX0 = Math.max(0, ax - r), wideX1 = Math.min(w, bx + r);
+        int rowsOnce0 = Math.max(0, ay - r), rowsOnce1 = Math.min(h, by + r);
+        // the first mean where the second reads it (r beyond the rectangle), from rows 2 r beyond
+        boxRows(src, tmp, w, r, wideX0, wideX1, Math.max(0, ay - 2 * r), Math.min(h, by + 2 * r));
+        boxCols(tmp, low, null, null, w, h, r, wideX0, wideX1, rowsOnce0, rowsOnce1);
+        boxRows(low, tmp, w, r, ax, bx, rowsOnce0, rowsOnce1);
+        boxCols(tmp, low, src, band, w, h, r, ax, bx, ay, by);
     }
 
     /** 2 x 2 block average: pixel (u, v) of the result covers source pixels 2u..2u+1, 2v..2v+1. */

@@ -6,9 +6,20 @@ package org.risetrace.registration;
  * scale, so every level keeps structures up to a few of its own pixels (fine texture at level 0, the board outline
  * at the top). Level-l pixel (u, v) has its centre at full-resolution (s u + (s - 1) / 2, s v + (s - 1) / 2),
  * s = 2^l. Buffers are reused when the next image has the same size (one pyramid per thread).
+ *
+ * <p>Level 0's band-pass and local mean, the largest part of the work, are made only where a mapping needs them
+ * ({@link #ensureLevel0}): the board's part of the frame and a margin. Everywhere else level 0's band-pass is NaN,
+ * which every sampler treats as outside the frame, so a sample beyond the region can cost an estimate but never
+ * read another frame's values. The values inside equal those of the whole frame's filter (clamped at the frame's
+ * borders, not the region's).
  */
 final class Pyramid {
     static final int HIGH_PASS_RADIUS = 4;
+    /**
+     * Frame pixels added on every side of a mapped board's box before level 0 is made there: the alignment on
+     * level 0 moves a mapping by a few pixels at most (its reach is the band-pass's), the patch check by at most 3.
+     */
+    static final int LEVEL0_MARGIN = 16;
 
     int levels;
     int[] widths = new int[0], heights = new int[0];
@@ -17,6 +28,8 @@ final class Pyramid {
     float[][] lowPass = new float[0][];
     private float[][] smooth = new float[0][];
     private float[] filled = new float[0], t1 = new float[0];
+    /** Level 0's band-pass is made in [x0, x1) x [y0, y1) (empty: x1 <= x0); NaN elsewhere. */
+    private int x0, y0, x1, y1;
 
     /** Number of levels for a frame of this size: the top level keeps at least 24 px on its short side. */
     static int autoLevels(int w, int h) {
@@ -37,11 +50,59 @@ final class Pyramid {
             input = filled;
         }
         Filters.gaussian1(input, smooth[0], t1, w, h);
-        for (int l = 0; l < levels; l++) {
-            if (l > 0) Filters.halve(smooth[l - 1], widths[l - 1], heights[l - 1], smooth[l], widths[l], heights[l]);
+        for (int l = 1; l < levels; l++) {
+            Filters.halve(smooth[l - 1], widths[l - 1], heights[l - 1], smooth[l], widths[l], heights[l]);
             Filters.highPass(smooth[l], bandPass[l], lowPass[l], t1, widths[l], heights[l], HIGH_PASS_RADIUS);
         }
+        // level 0 waits for a mapping; the last frame's values go
+        for (int y = y0; y < y1; y++) java.util.Arrays.fill(bandPass[0], y * w + x0, y * w + x1, Float.NaN);
+        x0 = y0 = x1 = y1 = 0;
+        if (levels == 1) ensureLevel0All(); // the top level is level 0: the coarse search needs all of it
         return true;
+    }
+
+    /** Makes level 0 over the whole frame (feature matching, the reference). */
+    void ensureLevel0All() {
+        ensureLevel0(0, 0, widths[0], heights[0]);
+    }
+
+    /**
+     * Makes level 0 where the reference's board lands through refToFrame (its box of level-0 pixels, {@link
+     * ReferenceModel#level0Box}, mapped, plus {@link #LEVEL0_MARGIN}).
+     */
+    void ensureLevel0(ReferenceModel ref, double[] refToFrame) {
+        double[] box = ref.level0Box;
+        double minX = Double.POSITIVE_INFINITY, minY = Double.POSITIVE_INFINITY;
+        double maxX = Double.NEGATIVE_INFINITY, maxY = Double.NEGATIVE_INFINITY;
+        double[] m = refToFrame;
+        for (int k = 0; k < 4; k++) {
+            double x = box[k == 0 || k == 3 ? 0 : 2], y = box[k < 2 ? 1 : 3];
+            double z = m[6] * x + m[7] * y + m[8];
+            double u = (m[0] * x + m[1] * y + m[2]) / z, v = (m[3] * x + m[4] * y + m[5]) / z;
+            if (!(Double.isFinite(u) && Double.isFinite(v) && z > 0)) { ensureLevel0All(); return; }
+            minX = Math.min(minX, u); maxX = Math.max(maxX, u);
+            minY = Math.min(minY, v); maxY = Math.max(maxY, v);
+        }
+        // a projective map of a rectangle is a convex quadrilateral (z > 0 at every corner): inside its corners' box
+        double lo = -1e6, hi = 1e6; // far outside the frame either way; clamped below
+        ensureLevel0((int) Math.floor(Math.max(lo, minX)) - LEVEL0_MARGIN, (int) Math.floor(Math.max(lo, minY)) - LEVEL0_MARGIN,
+                (int) Math.ceil(Math.min(hi, maxX)) + LEVEL0_MARGIN + 1, (int) Math.ceil(Math.min(hi, maxY)) + LEVEL0_MARGIN + 1);
+    }
+
+    /** Makes level 0 over at least [ax, bx) x [ay, by) (clamped to the frame). */
+    void ensureLevel0(int ax, int ay, int bx, int by) {
+        int w = widths[0], h = heights[0];
+        ax = Math.max(0, ax); ay = Math.max(0, ay); bx = Math.min(w, bx); by = Math.min(h, by);
+        if (bx <= ax || by <= ay) return;
+        if (x1 > x0 && ax >= x0 && ay >= y0 && bx <= x1 && by <= y1) return;
+        if (x1 > x0) { ax = Math.min(ax, x0); ay = Math.min(ay, y0); bx = Math.max(bx, x1); by = Math.max(by, y1); }
+        Filters.highPass(smooth[0], bandPass[0], lowPass[0], t1, w, h, HIGH_PASS_RADIUS, ax, ay, bx, by);
+        x0 = ax; y0 = ay; x1 = bx; y1 = by;
+    }
+
+    /** Level 0's region made so far: {x0, y0, x1, y1} (tests). */
+    int[] level0Region() {
+        return new int[]{x0, y0, x1, y1};
     }
 
     private void allocate(int w, int h, int n) {
@@ -58,8 +119,24 @@ final class Pyramid {
             lowPass[l] = new float[widths[l] * heights[l]];
             smooth[l] = new float[widths[l] * heights[l]];
         }
+        java.util.Arrays.fill(bandPass[0], Float.NaN);
+        x0 = y0 = x1 = y1 = 0;
         filled = new float[w * h];
         t1 = new float[w * h];
+    }
+
+    /** Standard deviation over every 3rd value, NaN left out (enough to tell a textured frame from a uniform one). */
+    static double spread(float[] v) {
+        double s = 0, s2 = 0;
+        int n = 0;
+        for (int i = 0; i < v.length; i += 3) {
+            float f = v[i];
+            if (f != f) continue;
+            s += f; s2 += f * f; n++;
+        }
+        if (n == 0) return 0;
+        double m = s / n;
+        return Math.sqrt(Math.max(0, s2 / n - m * m));
     }
 
     /** Scale factor s = 2^level. */

@@ -47,6 +47,13 @@ final class ReferenceModel {
     private final boolean withFeatures;
     private volatile FeatureSet features;
     final double referenceBandStd;
+    /**
+     * The box {x0, y0, x1, y1} (reference pixels) of every level-0 pixel a mapping is sampled at: template, score
+     * pixels, check patches and their neighbours. A frame's level 0 is made only where this box lands.
+     */
+    final double[] level0Box;
+    /** Spread of the reference's level-1 band-pass over the whole frame (the texture check's scale). */
+    final double levelOneSpread;
     /** True for a chain link's reference: a frame taken during heating rather than the user's cold reference. */
     final boolean heatedReference;
 
@@ -96,6 +103,7 @@ final class ReferenceModel {
         this.levels = config.pyramidLevels() > 0 ? config.pyramidLevels() : Pyramid.autoLevels(width, height);
         this.pyramid = new Pyramid();
         pyramid.build(ref.celsius(), width, height, levels);
+        pyramid.ensureLevel0All();
         this.boardToReference = Homographies.boardToFrame(board, board.outline().cornersPx());
         this.referenceCornersPx = Homographies.boardCorners(board, boardToReference);
         this.level = new Level[levels];
@@ -121,6 +129,8 @@ final class ReferenceModel {
         double m = sp.isEmpty() ? 0 : sum / sp.size();
         referenceBandStd = sp.isEmpty() ? 0 : Math.sqrt(Math.max(0, sum2 / sp.size() - m * m));
         patches = selectPatches();
+        level0Box = level0Box();
+        levelOneSpread = Pyramid.spread(pyramid.bandPass[Math.min(1, levels - 1)]);
         withFeatures = !config.method().equals("search");
     }
 
@@ -148,6 +158,27 @@ final class ReferenceModel {
     /** A frame graded ok during heating, prepared as the reference of a chain link. */
     static ReferenceModel prepareHeated(Frame ref, Board board, RegistrationConfig config) {
         return new ReferenceModel(ref, board, config, true);
+    }
+
+    private double[] level0Box() {
+        double x0 = Double.POSITIVE_INFINITY, y0 = Double.POSITIVE_INFINITY;
+        double x1 = Double.NEGATIVE_INFINITY, y1 = Double.NEGATIVE_INFINITY;
+        Level l0 = level[0];
+        for (int i = 0; i < l0.n; i++) {
+            x0 = Math.min(x0, l0.x[i]); x1 = Math.max(x1, l0.x[i]); y0 = Math.min(y0, l0.y[i]); y1 = Math.max(y1, l0.y[i]);
+        }
+        for (int i = 0; i < scoreX.length; i++) {
+            x0 = Math.min(x0, scoreX[i]); x1 = Math.max(x1, scoreX[i]); y0 = Math.min(y0, scoreY[i]); y1 = Math.max(y1, scoreY[i]);
+        }
+        for (Patch p : patches)
+            for (int k = 0; k < p.dx.length; k++) {
+                x0 = Math.min(x0, p.cx + p.dx[k]); x1 = Math.max(x1, p.cx + p.dx[k]);
+                y0 = Math.min(y0, p.cy + p.dy[k]); y1 = Math.max(y1, p.cy + p.dy[k]);
+            }
+        for (double[] c : referenceCornersPx) {
+            x0 = Math.min(x0, c[0]); x1 = Math.max(x1, c[0]); y0 = Math.min(y0, c[1]); y1 = Math.max(y1, c[1]);
+        }
+        return new double[]{x0 - 1, y0 - 1, x1 + 1, y1 + 1};
     }
 
     /** Board corners in level coordinates. */

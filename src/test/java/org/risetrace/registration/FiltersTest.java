@@ -86,4 +86,42 @@ class FiltersTest {
                 }
         }
     }
+    @Test
+    void highPassOverARectangleEqualsTheDefinitionThereAndWritesNothingElse() {
+        int w = 53, h = 41, r = 4;
+        float[] src = random(w * h, 977);
+        // the definition over the whole image: two box means, borders clamped at the image's edges
+        double[] once = new double[w * h], mean = new double[w * h];
+        for (int pass = 0; pass < 2; pass++) {
+            double[] in = new double[w * h], out = pass == 0 ? once : mean;
+            for (int i = 0; i < w * h; i++) in[i] = pass == 0 ? src[i] : once[i];
+            for (int y = 0; y < h; y++)
+                for (int x = 0; x < w; x++) {
+                    double s = 0;
+                    for (int j = -r; j <= r; j++)
+                        for (int i = -r; i <= r; i++) s += in[clamp(y + j, h) * w + clamp(x + i, w)];
+                    out[y * w + x] = s / ((2 * r + 1) * (2 * r + 1));
+                }
+        }
+        // inside, at the image's edges and corners, narrower than the radius, one pixel, the whole image
+        int[][] rects = {{10, 8, 30, 25}, {0, 0, 12, 9}, {40, 30, 53, 41}, {20, 0, 23, 41}, {0, 17, 53, 18},
+                {26, 20, 27, 21}, {0, 0, 53, 41}};
+        for (int[] q : rects) {
+            float[] band = new float[w * h], low = new float[w * h], tmp = new float[w * h];
+            java.util.Arrays.fill(band, -999f);
+            Filters.highPass(src, band, low, tmp, w, h, r, q[0], q[1], q[2], q[3]);
+            for (int y = 0; y < h; y++)
+                for (int x = 0; x < w; x++) {
+                    int i = y * w + x;
+                    boolean in = x >= q[0] && x < q[2] && y >= q[1] && y < q[3];
+                    String at = java.util.Arrays.toString(q) + " at " + x + "," + y;
+                    if (in) {
+                        assertEquals(src[i] - mean[i], band[i], 1e-3, "band-pass, " + at);
+                        assertEquals(mean[i], low[i], 1e-3, "local mean, " + at);
+                    } else {
+                        assertEquals(-999f, band[i], 0f, "outside the rectangle: untouched, " + at);
+                    }
+                }
+        }
+    }
 }

@@ -17,9 +17,62 @@ final class Filters {
 
     /** Separable Gaussian blur, sigma 1 px, kernel radius 3, borders clamped. */
     static void gaussian1(float[] src, float[] dst, float[] tmp, int w, int h) {
-        final float[] k = kernel(1.0, 3);
-        convolveRows(src, tmp, w, h, k);
-        convolveCols(tmp, dst, w, h, k);
+        gaussian1(src, dst, tmp, w, h, 0, 0, w, h);
+    }
+
+    /**
+     * The Gaussian blur of {@link #gaussian1(float[], float[], float[], int, int)} made in [ax, bx) x [ay, by) only
+     * (borders still clamped at the image's edges; tmp holds the rows' pass 3 rows beyond the rectangle).
+     */
+    static void gaussian1(float[] src, float[] dst, float[] tmp, int w, int h, int ax, int ay, int bx, int by) {
+        final float[] k = GAUSSIAN_1;
+        convolveRows(src, tmp, w, k, ax, bx, Math.max(0, ay - 3), Math.min(h, by + 3));
+        convolveCols(tmp, dst, w, h, k, ax, bx, ay, by);
+    }
+
+    private static final float[] GAUSSIAN_1 = kernel(1.0, 3);
+
+    /**
+     * The next pyramid level straight from the image: the Gaussian of {@link #gaussian1} followed by the 2 x 2 block
+     * average of {@link #halve}, as one filter of 8 taps evaluated at every second pixel along each axis (the
+     * same sums regrouped: the full-resolution blur is never made). tmp needs w2 * h values.
+     */
+    static void gaussianHalve(float[] src, int w, int h, float[] dst, int w2, int h2, float[] tmp) {
+        final float[] k = GAUSSIAN_1;
+        // taps for offsets -3 .. 4 from 2u: 0.5 (g[i] + g[i - 1])
+        float[] c = new float[8];
+        for (int t = 0; t < 8; t++) {
+            int i = t - 3;
+            float a = i >= -3 && i <= 3 ? k[i + 3] : 0f, b = i - 1 >= -3 && i - 1 <= 3 ? k[i + 2] : 0f;
+            c[t] = 0.5f * (a + b);
+        }
+        int last = w - 1;
+        for (int y = 0; y < h; y++) {
+            int row = y * w, out = y * w2;
+            for (int u = 0; u < w2; u++) {
+                int x = 2 * u;
+                float s;
+                if (x - 3 >= 0 && x + 4 <= last) {
+                    int i = row + x;
+                    s = c[0] * src[i - 3] + c[1] * src[i - 2] + c[2] * src[i - 1] + c[3] * src[i]
+                            + c[4] * src[i + 1] + c[5] * src[i + 2] + c[6] * src[i + 3] + c[7] * src[i + 4];
+                } else {
+                    s = 0;
+                    for (int t = 0; t < 8; t++) s += c[t] * src[row + Math.min(last, Math.max(0, x - 3 + t))];
+                }
+                tmp[out + u] = s;
+            }
+        }
+        int lastRow = h - 1;
+        for (int v = 0; v < h2; v++) {
+            int y = 2 * v, out = v * w2;
+            int r0 = Math.max(0, y - 3) * w2, r1 = Math.max(0, y - 2) * w2, r2 = Math.max(0, y - 1) * w2,
+                    r3 = Math.min(lastRow, y) * w2, r4 = Math.min(lastRow, y + 1) * w2, r5 = Math.min(lastRow, y + 2) * w2,
+                    r6 = Math.min(lastRow, y + 3) * w2, r7 = Math.min(lastRow, y + 4) * w2;
+            for (int u = 0; u < w2; u++)
+                dst[out + u] = c[0] * tmp[r0 + u] + c[1] * tmp[r1 + u] + c[2] * tmp[r2 + u] + c[3] * tmp[r3 + u]
+                        + c[4] * tmp[r4 + u] + c[5] * tmp[r5 + u] + c[6] * tmp[r6 + u] + c[7] * tmp[r7 + u];
+        }
     }
 
     private static float[] kernel(double sigma, int r) {
@@ -31,19 +84,20 @@ final class Filters {
     }
 
     /**
-     * Rows convolved with a symmetric 7-tap kernel (radius 3), borders clamped, pairs folded. The seven samples
-     * slide along the row in locals: one array read per pixel instead of seven (the quick compiler of a short run
-     * keeps them in registers; a fifth less time).
+     * Rows [ry0, ry1), columns [cx0, cx1) convolved with a symmetric 7-tap kernel (radius 3), borders clamped at the
+     * image's edges, pairs folded. The seven samples slide along the row in locals: one array read per pixel
+     * instead of seven (the quick compiler of a short run keeps them in registers; a fifth less time).
      */
-    private static void convolveRows(float[] src, float[] dst, int w, int h, float[] k) {
+    private static void convolveRows(float[] src, float[] dst, int w, float[] k, int cx0, int cx1, int ry0, int ry1) {
         float k0 = k[3], k1 = k[4], k2 = k[5], k3 = k[6];
         int last = w - 1;
-        for (int y = 0; y < h; y++) {
+        for (int y = ry0; y < ry1; y++) {
             int row = y * w;
             // a .. g hold the row at x - 3 .. x + 3, clamped to the row
-            float a = src[row], b = a, c = a, d = a;
-            float e = src[row + Math.min(1, last)], f = src[row + Math.min(2, last)], g = src[row + Math.min(3, last)];
-            for (int x = 0; x < w; x++) {
+            float a = src[row + Math.max(0, Math.min(last, cx0 - 3))], b = src[row + Math.max(0, Math.min(last, cx0 - 2))],
+                    c = src[row + Math.max(0, Math.min(last, cx0 - 1))], d = src[row + Math.min(last, cx0)];
+            float e = src[row + Math.min(cx0 + 1, last)], f = src[row + Math.min(cx0 + 2, last)], g = src[row + Math.min(cx0 + 3, last)];
+            for (int x = cx0; x < cx1; x++) {
                 dst[row + x] = k0 * d + k1 * (c + e) + k2 * (b + f) + k3 * (a + g);
                 a = b; b = c; c = d; d = e; e = f; f = g;
                 int next = x + 4;
@@ -52,15 +106,18 @@ final class Filters {
         }
     }
 
-    /** Columns convolved with a symmetric 7-tap kernel (radius 3), borders clamped, pairs of rows folded. */
-    private static void convolveCols(float[] src, float[] dst, int w, int h, float[] k) {
+    /**
+     * Rows [ry0, ry1), columns [cx0, cx1) of the columns convolved with a symmetric 7-tap kernel (radius 3), borders
+     * clamped at the image's edges, pairs of rows folded.
+     */
+    private static void convolveCols(float[] src, float[] dst, int w, int h, float[] k, int cx0, int cx1, int ry0, int ry1) {
         float k0 = k[3], k1 = k[4], k2 = k[5], k3 = k[6];
-        for (int y = 0; y < h; y++) {
+        for (int y = ry0; y < ry1; y++) {
             int row = y * w;
             int m1 = Math.max(0, y - 1) * w, p1 = Math.min(h - 1, y + 1) * w;
             int m2 = Math.max(0, y - 2) * w, p2 = Math.min(h - 1, y + 2) * w;
             int m3 = Math.max(0, y - 3) * w, p3 = Math.min(h - 1, y + 3) * w;
-            for (int x = 0; x < w; x++)
+            for (int x = cx0; x < cx1; x++)
                 dst[row + x] = k0 * src[row + x] + k1 * (src[m1 + x] + src[p1 + x]) + k2 * (src[m2 + x] + src[p2 + x])
                         + k3 * (src[m3 + x] + src[p3 + x]);
         }

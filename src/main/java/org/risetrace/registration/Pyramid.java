@@ -2,8 +2,8 @@ package org.risetrace.registration;
 
 /**
  * Coarse-to-fine pyramid of band-passed images. Level 0 is the frame smoothed by a Gaussian of sigma 1 px and
- * high-passed; level l+1 is the 2 x 2 block average of level l's smoothed image, high-passed again at its own
- * scale, so every level keeps structures up to a few of its own pixels (fine texture at level 0, the board outline
+ * high-passed; level l+1 is the 2 x 2 block average of level l's smoothed image (level 1 made straight from the
+ * frame by the two filters combined, {@link Filters#gaussianHalve}), high-passed again at its own scale, so every level keeps structures up to a few of its own pixels (fine texture at level 0, the board outline
  * at the top). Level-l pixel (u, v) has its centre at full-resolution (s u + (s - 1) / 2, s v + (s - 1) / 2),
  * s = 2^l. Buffers are reused when the next image has the same size (one pyramid per thread).
  *
@@ -28,6 +28,8 @@ final class Pyramid {
     float[][] lowPass = new float[0][];
     private float[][] smooth = new float[0][];
     private float[] filled = new float[0], t1 = new float[0];
+    /** The frame (NaN filled) level 0 is made from, until the next build. */
+    private float[] level0Input;
     /** Level 0's band-pass is made in [x0, x1) x [y0, y1) (empty: x1 <= x0); NaN elsewhere. */
     private int x0, y0, x1, y1;
 
@@ -49,9 +51,10 @@ final class Pyramid {
             if (Double.isNaN(Filters.fillInvalid(celsius, filled))) return false;
             input = filled;
         }
-        Filters.gaussian1(input, smooth[0], t1, w, h);
+        level0Input = input;
         for (int l = 1; l < levels; l++) {
-            Filters.halve(smooth[l - 1], widths[l - 1], heights[l - 1], smooth[l], widths[l], heights[l]);
+            if (l == 1) Filters.gaussianHalve(input, w, h, smooth[1], widths[1], heights[1], t1);
+            else Filters.halve(smooth[l - 1], widths[l - 1], heights[l - 1], smooth[l], widths[l], heights[l]);
             Filters.highPass(smooth[l], bandPass[l], lowPass[l], t1, widths[l], heights[l], HIGH_PASS_RADIUS);
         }
         // level 0 waits for a mapping; the last frame's values go
@@ -96,6 +99,10 @@ final class Pyramid {
         if (bx <= ax || by <= ay) return;
         if (x1 > x0 && ax >= x0 && ay >= y0 && bx <= x1 && by <= y1) return;
         if (x1 > x0) { ax = Math.min(ax, x0); ay = Math.min(ay, y0); bx = Math.max(bx, x1); by = Math.max(by, y1); }
+        // the band-pass reads the blurred frame up to twice its radius beyond the rectangle
+        int reach = 2 * HIGH_PASS_RADIUS;
+        Filters.gaussian1(level0Input, smooth[0], t1, w, h, Math.max(0, ax - reach), Math.max(0, ay - reach),
+                Math.min(w, bx + reach), Math.min(h, by + reach));
         Filters.highPass(smooth[0], bandPass[0], lowPass[0], t1, w, h, HIGH_PASS_RADIUS, ax, ay, bx, by);
         x0 = ax; y0 = ay; x1 = bx; y1 = by;
     }

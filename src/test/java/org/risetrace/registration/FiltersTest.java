@@ -124,4 +124,36 @@ class FiltersTest {
                 }
         }
     }
+    @Test
+    void gaussianHalveEqualsTheBlurThenTheBlockAverage() {
+        for (int[] size : new int[][]{{64, 48}, {33, 27}, {9, 7}, {2, 2}, {3, 8}}) {
+            int w = size[0], h = size[1], w2 = Math.max(1, w / 2), h2 = Math.max(1, h / 2);
+            if (w < 2 || h < 2) continue;
+            float[] src = random(w * h, w * 13L + h);
+            float[] blur = new float[w * h], tmp = new float[w * h], expected = new float[w2 * h2], got = new float[w2 * h2];
+            Filters.gaussian1(src, blur, tmp, w, h);
+            Filters.halve(blur, w, h, expected, w2, h2);
+            Filters.gaussianHalve(src, w, h, got, w2, h2, new float[w2 * h]);
+            for (int i = 0; i < expected.length; i++)
+                assertEquals(expected[i], got[i], 1e-4, w + "x" + h + " at " + (i % w2) + "," + (i / w2));
+        }
+    }
+
+    @Test
+    void gaussianOverARectangleEqualsTheWholeImagesThere() {
+        int w = 31, h = 22;
+        float[] src = random(w * h, 5);
+        float[] full = new float[w * h], tmp = new float[w * h];
+        Filters.gaussian1(src, full, tmp, w, h);
+        for (int[] q : new int[][]{{4, 5, 20, 15}, {0, 0, 3, 2}, {28, 19, 31, 22}, {10, 0, 11, 22}}) {
+            float[] part = new float[w * h];
+            java.util.Arrays.fill(part, -1f);
+            Filters.gaussian1(src, part, new float[w * h], w, h, q[0], q[1], q[2], q[3]);
+            for (int y = 0; y < h; y++)
+                for (int x = 0; x < w; x++) {
+                    boolean in = x >= q[0] && x < q[2] && y >= q[1] && y < q[3];
+                    assertEquals(in ? full[y * w + x] : -1f, part[y * w + x], 1e-6, java.util.Arrays.toString(q) + " at " + x + "," + y);
+                }
+        }
+    }
 }

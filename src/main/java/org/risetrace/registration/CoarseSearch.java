@@ -133,12 +133,19 @@ final class CoarseSearch {
         double[] h = Pyramid.toLevel(estimate, l);
         float[] img = frame.bandPass[l];
         int w = frame.widths[l], hh = frame.heights[l];
-        float[] px = new float[m], py = new float[m], t = new float[m];
+        float[] px = new float[m], py = new float[m], t = new float[m], ax = new float[m], ay = new float[m];
+        int[] ix = new int[m], iy = new int[m];
         for (int i = 0, k = 0; i < n; i += step, k++) {
             double x = lv.x[i], y = lv.y[i], z = h[6] * x + h[7] * y + h[8];
             px[k] = (float) ((h[0] * x + h[1] * y + h[2]) / z);
             py[k] = (float) ((h[3] * x + h[4] * y + h[5]) / z);
             t[k] = lv.t[i];
+            // whole-pixel shifts keep the interpolation weights: the cell and weights once per sample
+            // (-2^20 for a position out of int range: every shift of it falls outside and takes the slow path)
+            ix[k] = Float.isFinite(px[k]) && Math.abs(px[k]) < 1e6f ? (int) Math.floor(px[k]) : -(1 << 20);
+            iy[k] = Float.isFinite(py[k]) && Math.abs(py[k]) < 1e6f ? (int) Math.floor(py[k]) : -(1 << 20);
+            ax[k] = px[k] - ix[k];
+            ay[k] = py[k] - iy[k];
         }
         double bestScore = Double.NEGATIVE_INFINITY;
         int bx = 0, by = 0;
@@ -147,7 +154,16 @@ final class CoarseSearch {
                 double sf = 0, sf2 = 0, sft = 0, st = 0, st2 = 0;
                 int valid = 0;
                 for (int k = 0; k < m; k++) {
-                    float f = Filters.bilinear(img, w, hh, px[k] + dx, py[k] + dy);
+                    int x0 = ix[k] + dx, y0 = iy[k] + dy;
+                    float f;
+                    if (x0 >= 0 && y0 >= 0 && x0 < w - 1 && y0 < hh - 1) { // Filters.bilinear written out
+                        int q = y0 * w + x0;
+                        float a = ax[k], p00 = img[q], p10 = img[q + 1], p01 = img[q + w], p11 = img[q + w + 1];
+                        float top = p00 + a * (p10 - p00), bot = p01 + a * (p11 - p01);
+                        f = top + ay[k] * (bot - top);
+                    } else { // the frame's last row or column, or outside
+                        f = Filters.bilinear(img, w, hh, px[k] + dx, py[k] + dy);
+                    }
                     if (f != f) continue;
                     valid++;
                     sf += f; sf2 += f * f; sft += f * t[k]; st += t[k]; st2 += t[k] * t[k];

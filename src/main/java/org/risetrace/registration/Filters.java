@@ -46,16 +46,17 @@ final class Filters {
             float a = i >= -3 && i <= 3 ? k[i + 3] : 0f, b = i - 1 >= -3 && i - 1 <= 3 ? k[i + 2] : 0f;
             c[t] = 0.5f * (a + b);
         }
+        float c0 = c[0], c1 = c[1], c2 = c[2], c3 = c[3];
         int last = w - 1;
         for (int y = 0; y < h; y++) {
             int row = y * w, out = y * w2;
             for (int u = 0; u < w2; u++) {
                 int x = 2 * u;
                 float s;
-                if (x - 3 >= 0 && x + 4 <= last) {
+                if (x - 3 >= 0 && x + 4 <= last) { // the taps are symmetric about x + 1/2: pairs folded
                     int i = row + x;
-                    s = c[0] * src[i - 3] + c[1] * src[i - 2] + c[2] * src[i - 1] + c[3] * src[i]
-                            + c[4] * src[i + 1] + c[5] * src[i + 2] + c[6] * src[i + 3] + c[7] * src[i + 4];
+                    s = c0 * (src[i - 3] + src[i + 4]) + c1 * (src[i - 2] + src[i + 3]) + c2 * (src[i - 1] + src[i + 2])
+                            + c3 * (src[i] + src[i + 1]);
                 } else {
                     s = 0;
                     for (int t = 0; t < 8; t++) s += c[t] * src[row + Math.min(last, Math.max(0, x - 3 + t))];
@@ -70,8 +71,8 @@ final class Filters {
                     r3 = Math.min(lastRow, y) * w2, r4 = Math.min(lastRow, y + 1) * w2, r5 = Math.min(lastRow, y + 2) * w2,
                     r6 = Math.min(lastRow, y + 3) * w2, r7 = Math.min(lastRow, y + 4) * w2;
             for (int u = 0; u < w2; u++)
-                dst[out + u] = c[0] * tmp[r0 + u] + c[1] * tmp[r1 + u] + c[2] * tmp[r2 + u] + c[3] * tmp[r3 + u]
-                        + c[4] * tmp[r4 + u] + c[5] * tmp[r5 + u] + c[6] * tmp[r6 + u] + c[7] * tmp[r7 + u];
+                dst[out + u] = c0 * (tmp[r0 + u] + tmp[r7 + u]) + c1 * (tmp[r1 + u] + tmp[r6 + u])
+                        + c2 * (tmp[r2 + u] + tmp[r5 + u]) + c3 * (tmp[r3 + u] + tmp[r4 + u]);
         }
     }
 

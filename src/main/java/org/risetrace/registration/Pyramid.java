@@ -16,9 +16,12 @@ package org.risetrace.registration;
 final class Pyramid {
     static final int HIGH_PASS_RADIUS = 4;
     /**
-     * Frame pixels added on every side of a mapped board's box before level 0 is made there: the alignment on
-     * level 0 moves a mapping by a few pixels at most (its reach is the band-pass's), the patch check by at most 3.
+     * Frame pixels around a mapped board's box that must be made before level 0 is sampled through the mapping: the
+     * alignment on level 0 moves a mapping by a few pixels at most (its reach is the band-pass's), the patch check
+     * by at most 3. When they are not, level 0 is made with {@link #LEVEL0_MARGIN} around the box, so the next
+     * mappings of the same frame, a few pixels apart, find it made.
      */
+    static final int LEVEL0_NEED = 6;
     static final int LEVEL0_MARGIN = 16;
 
     int levels;
@@ -88,16 +91,23 @@ final class Pyramid {
         }
         // a projective map of a rectangle is a convex quadrilateral (z > 0 at every corner): inside its corners' box
         double lo = -1e6, hi = 1e6; // far outside the frame either way; clamped below
-        ensureLevel0((int) Math.floor(Math.max(lo, minX)) - LEVEL0_MARGIN, (int) Math.floor(Math.max(lo, minY)) - LEVEL0_MARGIN,
-                (int) Math.ceil(Math.min(hi, maxX)) + LEVEL0_MARGIN + 1, (int) Math.ceil(Math.min(hi, maxY)) + LEVEL0_MARGIN + 1);
+        int ax = (int) Math.floor(Math.max(lo, minX)), ay = (int) Math.floor(Math.max(lo, minY));
+        int bx = (int) Math.ceil(Math.min(hi, maxX)) + 1, by = (int) Math.ceil(Math.min(hi, maxY)) + 1;
+        if (made(ax - LEVEL0_NEED, ay - LEVEL0_NEED, bx + LEVEL0_NEED, by + LEVEL0_NEED)) return;
+        ensureLevel0(ax - LEVEL0_MARGIN, ay - LEVEL0_MARGIN, bx + LEVEL0_MARGIN, by + LEVEL0_MARGIN);
+    }
+
+    /** True when level 0 is made over [ax, bx) x [ay, by) clamped to the frame. */
+    private boolean made(int ax, int ay, int bx, int by) {
+        ax = Math.max(0, ax); ay = Math.max(0, ay); bx = Math.min(widths[0], bx); by = Math.min(heights[0], by);
+        return bx <= ax || by <= ay || (x1 > x0 && ax >= x0 && ay >= y0 && bx <= x1 && by <= y1);
     }
 
     /** Makes level 0 over at least [ax, bx) x [ay, by) (clamped to the frame). */
     void ensureLevel0(int ax, int ay, int bx, int by) {
         int w = widths[0], h = heights[0];
         ax = Math.max(0, ax); ay = Math.max(0, ay); bx = Math.min(w, bx); by = Math.min(h, by);
-        if (bx <= ax || by <= ay) return;
-        if (x1 > x0 && ax >= x0 && ay >= y0 && bx <= x1 && by <= y1) return;
+        if (made(ax, ay, bx, by)) return;
         if (x1 > x0) { ax = Math.min(ax, x0); ay = Math.min(ay, y0); bx = Math.max(bx, x1); by = Math.max(by, y1); }
         // the band-pass reads the blurred frame up to twice its radius beyond the rectangle
         int reach = 2 * HIGH_PASS_RADIUS;

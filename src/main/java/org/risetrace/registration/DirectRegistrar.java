@@ -20,6 +20,10 @@ final class DirectRegistrar implements Registrar {
 
     private static final class Workspace {
         Pyramid pyramid = new Pyramid();
+        /** Where this thread's chain links are prepared (reused link after link; no link keeps it). */
+        Pyramid linkScratch;
+        /** The grading's samples at the score pixels and their differences (reused frame after frame). */
+        float[] scoreValues = new float[0], scoreDiff = new float[0];
         /** The frame's top level before clipping (each reference clips it to its own range). */
         float[] topUnclipped;
         final DirectAligner aligner = new DirectAligner();
@@ -310,7 +314,9 @@ final class DirectRegistrar implements Registrar {
         org.risetrace.board.Board b = new org.risetrace.board.Board(ref.board.name(), ref.board.sizeMm(),
                 new org.risetrace.board.Outline(name, corners, null), ref.board.parts(), ref.board.ambient());
         try {
-            ws.chain = new DirectRegistrar(ReferenceModel.prepareHeated(ws.lastGood, b, config.withMethod("search")),
+            if (ws.linkScratch == null) ws.linkScratch = new Pyramid();
+            ws.chain = new DirectRegistrar(ReferenceModel.prepareHeated(ws.lastGood, b, config.withMethod("search"),
+                    ws.linkScratch),
                     config.withMethod("auto"), false);
         } catch (RuntimeException e) {
             return r;
@@ -507,7 +513,9 @@ final class DirectRegistrar implements Registrar {
         float[] img = frame.bandPass[0];
         int w = frame.widths[0], hh = frame.heights[0];
         int n = ref.scoreX.length, valid = 0;
-        float[] fs = new float[n], diff = new float[n];
+        Workspace ws = workspace.get();
+        if (ws.scoreValues.length < n) { ws.scoreValues = new float[n]; ws.scoreDiff = new float[n]; }
+        float[] fs = ws.scoreValues, diff = ws.scoreDiff;
         for (int i = 0; i < n; i++) {
             double x = ref.scoreX[i], y = ref.scoreY[i];
             double z = m[6] * x + m[7] * y + m[8];

@@ -38,7 +38,8 @@ final class ReferenceModel {
     final String referenceName;
     final Board board;
     final int width, height, levels;
-    final Pyramid pyramid;
+    /** The reference's pyramid while it is prepared; afterwards kept only for feature detection (else null). */
+    private Pyramid pyramid;
     final Homography boardToReference;
     final double[][] referenceCornersPx;
     final Level[] level;
@@ -94,14 +95,14 @@ final class ReferenceModel {
         }
     }
 
-    private ReferenceModel(Frame ref, Board board, RegistrationConfig config, boolean heatedReference) {
+    private ReferenceModel(Frame ref, Board board, RegistrationConfig config, boolean heatedReference, Pyramid scratch) {
         this.heatedReference = heatedReference;
         this.referenceName = board.outline().frame();
         this.board = board;
         this.width = ref.width();
         this.height = ref.height();
         this.levels = config.pyramidLevels() > 0 ? config.pyramidLevels() : Pyramid.autoLevels(width, height);
-        this.pyramid = new Pyramid();
+        this.pyramid = scratch != null ? scratch : new Pyramid();
         pyramid.build(ref.celsius(), width, height, levels);
         pyramid.ensureLevel0All();
         this.boardToReference = Homographies.boardToFrame(board, board.outline().cornersPx());
@@ -132,6 +133,7 @@ final class ReferenceModel {
         level0Box = level0Box();
         levelOneSpread = Pyramid.spread(pyramid.bandPass[Math.min(1, levels - 1)]);
         withFeatures = !config.method().equals("search");
+        if (!withFeatures) pyramid = null; // a chain link's: 5 frame-sized arrays and more, gone with the link
     }
 
     /**
@@ -152,12 +154,20 @@ final class ReferenceModel {
     }
 
     static ReferenceModel prepare(Frame ref, Board board, RegistrationConfig config) {
-        return new ReferenceModel(ref, board, config, false);
+        return new ReferenceModel(ref, board, config, false, null);
     }
 
     /** A frame graded ok during heating, prepared as the reference of a chain link. */
     static ReferenceModel prepareHeated(Frame ref, Board board, RegistrationConfig config) {
-        return new ReferenceModel(ref, board, config, true);
+        return prepareHeated(ref, board, config, null);
+    }
+
+    /**
+     * As {@link #prepareHeated(Frame, Board, RegistrationConfig)}, built in the caller's scratch pyramid (the
+     * calling thread's, reused link after link) when the model will not keep it (no features: method "search").
+     */
+    static ReferenceModel prepareHeated(Frame ref, Board board, RegistrationConfig config, Pyramid scratch) {
+        return new ReferenceModel(ref, board, config, true, config.method().equals("search") ? scratch : null);
     }
 
     private double[] level0Box() {
@@ -195,13 +205,18 @@ final class ReferenceModel {
         float[] img = pyramid.bandPass[l];
         double[][] c = cornersAtLevel(l);
         double margin = Math.max(1.0, 2.0 / Pyramid.scale(l));
-        int cap = w * h;
+        // only the outline's box (with the margin) can hold template pixels: the buffers and the scan stay there
+        double qx0 = Double.POSITIVE_INFINITY, qy0 = Double.POSITIVE_INFINITY, qx1 = Double.NEGATIVE_INFINITY, qy1 = Double.NEGATIVE_INFINITY;
+        for (double[] p : c) { qx0 = Math.min(qx0, p[0]); qy0 = Math.min(qy0, p[1]); qx1 = Math.max(qx1, p[0]); qy1 = Math.max(qy1, p[1]); }
+        int bx0 = (int) Math.max(1, Math.floor(qx0 - margin - 1)), by0 = (int) Math.max(1, Math.floor(qy0 - margin - 1));
+        int bx1 = (int) Math.min(w - 2, Math.ceil(qx1 + margin + 1)), by1 = (int) Math.min(h - 2, Math.ceil(qy1 + margin + 1));
+        int cap = Math.max(0, bx1 - bx0 + 1) * Math.max(0, by1 - by0 + 1);
         float[] gm = new float[cap];
         int[] idx = new int[cap];
         int n = 0;
         Quad quad = new Quad(c, margin);
-        for (int y = 1; y < h - 1; y++)
-            for (int x = 1; x < w - 1; x++) {
+        for (int y = by0; y <= by1; y++)
+            for (int x = bx0; x <= bx1; x++) {
                 if (!quad.contains(x, y)) continue;
                 int i = y * w + x;
                 float gx = 0.5f * (img[i + 1] - img[i - 1]), gy = 0.5f * (img[i + w] - img[i - w]);

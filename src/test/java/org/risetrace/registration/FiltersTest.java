@@ -67,42 +67,41 @@ class FiltersTest {
             float[] dst = new float[w * h], low = new float[w * h], t2 = new float[w * h];
             Filters.highPass(src, dst, low, t2, w, h, r);
             // the definition: two box means (each the direct average, clamped borders), subtracted from the source
-            double[] once = new double[w * h];
+            double[] twice = directBoxMean(directBoxMean(toDouble(src), w, h, r), w, h, r);
             for (int y = 0; y < h; y++)
                 for (int x = 0; x < w; x++) {
-                    double s = 0;
-                    for (int j = -r; j <= r; j++)
-                        for (int i = -r; i <= r; i++) s += src[clamp(y + j, h) * w + clamp(x + i, w)];
-                    once[y * w + x] = s / ((2 * r + 1) * (2 * r + 1));
-                }
-            for (int y = 0; y < h; y++)
-                for (int x = 0; x < w; x++) {
-                    double s = 0;
-                    for (int j = -r; j <= r; j++)
-                        for (int i = -r; i <= r; i++) s += once[clamp(y + j, h) * w + clamp(x + i, w)];
-                    double mean = s / ((2 * r + 1) * (2 * r + 1));
+                    double mean = twice[y * w + x];
                     assertEquals(src[y * w + x] - mean, dst[y * w + x], 1e-3, w + "x" + h + " at " + x + "," + y);
                     assertEquals(mean, low[y * w + x], 1e-3, "local mean, " + w + "x" + h + " at " + x + "," + y);
                 }
         }
     }
+
+    /** The box mean of radius r by its definition: the direct average of the (2r + 1)^2 neighbours, borders clamped. */
+    private static double[] directBoxMean(double[] in, int w, int h, int r) {
+        double[] out = new double[w * h];
+        for (int y = 0; y < h; y++)
+            for (int x = 0; x < w; x++) {
+                double s = 0;
+                for (int j = -r; j <= r; j++)
+                    for (int i = -r; i <= r; i++) s += in[clamp(y + j, h) * w + clamp(x + i, w)];
+                out[y * w + x] = s / ((2 * r + 1) * (2 * r + 1));
+            }
+        return out;
+    }
+
+    private static double[] toDouble(float[] v) {
+        double[] d = new double[v.length];
+        for (int i = 0; i < v.length; i++) d[i] = v[i];
+        return d;
+    }
+
     @Test
     void highPassOverARectangleEqualsTheDefinitionThereAndWritesNothingElse() {
         int w = 53, h = 41, r = 4;
         float[] src = random(w * h, 977);
         // the definition over the whole image: two box means, borders clamped at the image's edges
-        double[] once = new double[w * h], mean = new double[w * h];
-        for (int pass = 0; pass < 2; pass++) {
-            double[] in = new double[w * h], out = pass == 0 ? once : mean;
-            for (int i = 0; i < w * h; i++) in[i] = pass == 0 ? src[i] : once[i];
-            for (int y = 0; y < h; y++)
-                for (int x = 0; x < w; x++) {
-                    double s = 0;
-                    for (int j = -r; j <= r; j++)
-                        for (int i = -r; i <= r; i++) s += in[clamp(y + j, h) * w + clamp(x + i, w)];
-                    out[y * w + x] = s / ((2 * r + 1) * (2 * r + 1));
-                }
-        }
+        double[] mean = directBoxMean(directBoxMean(toDouble(src), w, h, r), w, h, r);
         // inside, at the image's edges and corners, narrower than the radius, one pixel, the whole image
         int[][] rects = {{10, 8, 30, 25}, {0, 0, 12, 9}, {40, 30, 53, 41}, {20, 0, 23, 41}, {0, 17, 53, 18},
                 {26, 20, 27, 21}, {0, 0, 53, 41}};

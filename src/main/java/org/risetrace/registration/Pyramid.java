@@ -43,7 +43,10 @@ final class Pyramid {
         return n;
     }
 
-    /** Builds the pyramid; returns false when the frame holds no finite pixel (nothing to build from). */
+    /**
+     * Builds the pyramid; returns false when the frame holds no finite pixel (nothing to build from: every level is
+     * then flat, zero, and made).
+     */
     boolean build(float[] celsius, int w, int h, int nLevels) {
         if (levels != nLevels || widths.length == 0 || widths[0] != w || heights[0] != h) allocate(w, h, nLevels);
         // v - v is 0 for a finite v and NaN for NaN and the infinities: a third of the time of a running mean
@@ -51,7 +54,15 @@ final class Pyramid {
         for (float v : celsius) if (v - v != 0) { allFinite = false; break; }
         float[] input = celsius;
         if (!allFinite) { // pixels without a reading take the mean of the others (a copy only then)
-            if (Double.isNaN(Filters.fillInvalid(celsius, filled))) return false;
+            if (Double.isNaN(Filters.fillInvalid(celsius, filled))) { // flat: zeros on every level, all of them made
+                for (int l = 0; l < levels; l++) {
+                    java.util.Arrays.fill(bandPass[l], 0f);
+                    java.util.Arrays.fill(lowPass[l], 0f);
+                }
+                x0 = 0; y0 = 0; x1 = w; y1 = h;
+                level0Input = null;
+                return false;
+            }
             input = filled;
         }
         level0Input = input;

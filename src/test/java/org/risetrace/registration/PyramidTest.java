@@ -69,6 +69,19 @@ class PyramidTest {
         checkRegion(p, fullB[0], w, h, new int[]{0, 0, w, h});
     }
 
+    @Test
+    void aFrameWithoutReadingsGivesFlatLevelsAndNothingToMake() {
+        int w = 64, h = 48;
+        Pyramid p = new Pyramid();
+        assertTrue(p.build(random(w * h, 4), w, h, 2));
+        p.ensureLevel0(5, 5, 30, 30);
+        float[] none = new float[w * h];
+        java.util.Arrays.fill(none, Float.NaN);
+        assertTrue(!p.build(none, w, h, 2), "no finite pixel: nothing to build from");
+        p.ensureLevel0All(); // a reference without readings is still prepared (and matches nothing)
+        for (int l = 0; l < 2; l++) for (float v : p.bandPass[l]) assertEquals(0f, v, 0f, "level " + l + " flat");
+    }
+
     private static void checkRegion(Pyramid p, float[] full, int w, int h, int[] r) {
         for (int y = 0; y < h; y++)
             for (int x = 0; x < w; x++) {

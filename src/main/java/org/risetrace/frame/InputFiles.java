@@ -37,20 +37,13 @@ public final class InputFiles {
             long limit = Math.min(Integer.MAX_VALUE - 16L, maxBytes + 1);
             // the size the file system states sizes the array (one array, no copies for a file read whole); it is
             // only a hint: the read goes on to the end of the file or the limit, whichever comes first
-            long stated = Files.size(file);
-            byte[] b;
-            if (stated > 0 && stated < limit) {
-                byte[] first = new byte[(int) stated];
-                int n = in.readNBytes(first, 0, first.length);
-                byte[] rest = n < first.length ? new byte[0] : in.readNBytes((int) (limit - n));
-                if (n < first.length) b = java.util.Arrays.copyOf(first, n);
-                else if (rest.length == 0) b = first;
-                else {
-                    b = java.util.Arrays.copyOf(first, n + rest.length);
-                    System.arraycopy(rest, 0, b, n, rest.length);
-                }
-            } else {
-                b = in.readNBytes((int) limit);
+            byte[] b = new byte[(int) Math.max(0, Math.min(Files.size(file), limit - 1))];
+            int n = in.readNBytes(b, 0, b.length);
+            if (n < b.length) b = java.util.Arrays.copyOf(b, n); // shorter than stated
+            byte[] rest = in.readNBytes((int) (limit - n));        // longer than stated (or stated 0)
+            if (rest.length > 0) {
+                b = java.util.Arrays.copyOf(b, n + rest.length);
+                System.arraycopy(rest, 0, b, n, rest.length);
             }
             if (b.length > maxBytes)
                 throw new InputRejected(file, what + " is larger than " + sizeText(maxBytes), "is it the right file?");

@@ -95,9 +95,10 @@ final class Filters {
         for (int y = ry0; y < ry1; y++) {
             int row = y * w;
             // a .. g hold the row at x - 3 .. x + 3, clamped to the row
-            float a = src[row + Math.max(0, Math.min(last, cx0 - 3))], b = src[row + Math.max(0, Math.min(last, cx0 - 2))],
-                    c = src[row + Math.max(0, Math.min(last, cx0 - 1))], d = src[row + Math.min(last, cx0)];
-            float e = src[row + Math.min(cx0 + 1, last)], f = src[row + Math.min(cx0 + 2, last)], g = src[row + Math.min(cx0 + 3, last)];
+            float a = src[row + Math.max(0, Math.min(last, cx0 - 3))], b = src[row + Math.max(0, Math.min(last, cx0 - 2))];
+            float c = src[row + Math.max(0, Math.min(last, cx0 - 1))], d = src[row + Math.min(last, cx0)];
+            float e = src[row + Math.min(cx0 + 1, last)], f = src[row + Math.min(cx0 + 2, last)];
+            float g = src[row + Math.min(cx0 + 3, last)];
             for (int x = cx0; x < cx1; x++) {
                 dst[row + x] = k0 * d + k1 * (c + e) + k2 * (b + f) + k3 * (a + g);
                 a = b; b = c; c = d; d = e; e = f; f = g;

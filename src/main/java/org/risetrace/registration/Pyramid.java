@@ -3,8 +3,8 @@ package org.risetrace.registration;
 /**
  * Coarse-to-fine pyramid of band-passed images. Level 0 is the frame smoothed by a Gaussian of sigma 1 px and
  * high-passed; level l+1 is the 2 x 2 block average of level l's smoothed image (level 1 made straight from the
- * frame by the two filters combined, {@link Filters#gaussianHalve}), high-passed again at its own scale, so every level keeps structures up to a few of its own pixels (fine texture at level 0, the board outline
- * at the top). Level-l pixel (u, v) has its centre at full-resolution (s u + (s - 1) / 2, s v + (s - 1) / 2),
+ * frame by the two filters combined, {@link Filters#gaussianHalve}), high-passed again at its own scale, so every
+ * level keeps structures up to a few of its own pixels (fine texture at level 0, the board outline at the top). Level-l pixel (u, v) has its centre at full-resolution (s u + (s - 1) / 2, s v + (s - 1) / 2),
  * s = 2^l. Buffers are reused when the next image has the same size (one pyramid per thread).
  *
  * <p>Level 0's band-pass and local mean, the largest part of the work, are made only where a mapping needs them
@@ -119,6 +119,7 @@ final class Pyramid {
         int w = widths[0], h = heights[0];
         ax = Math.max(0, ax); ay = Math.max(0, ay); bx = Math.min(w, bx); by = Math.min(h, by);
         if (made(ax, ay, bx, by)) return;
+        // grown to the box holding both, made again whole (rare: 1 extension in 150 hand-held frames)
         if (x1 > x0) { ax = Math.min(ax, x0); ay = Math.min(ay, y0); bx = Math.max(bx, x1); by = Math.max(by, y1); }
         // the band-pass reads the blurred frame up to twice its radius beyond the rectangle
         int reach = 2 * HIGH_PASS_RADIUS;

@@ -47,7 +47,6 @@ final class ReferenceModel {
     final List<Patch> patches;
     private final boolean withFeatures;
     private volatile FeatureSet features;
-    final double referenceBandStd;
     /**
      * The box {x0, y0, x1, y1} (reference pixels) of every level-0 pixel a mapping is sampled at: template, score
      * pixels, check patches and their neighbours. A frame's level 0 is made only where this box lands.
@@ -114,21 +113,14 @@ final class ReferenceModel {
         double area = Math.abs(polygonArea(referenceCornersPx));
         int stride = Math.max(1, (int) Math.ceil(Math.sqrt(area / MAX_SCORE_PIXELS)));
         float[] b0 = pyramid.bandPass[0];
-        double sum = 0, sum2 = 0;
         Quad outline = new Quad(referenceCornersPx, 0);
         for (int y = 1; y < height - 1; y += stride)
             for (int x = 1; x < width - 1; x += stride)
-                if (outline.contains(x, y)) {
-                    sp.add(new float[]{x, y, b0[y * width + x]});
-                    sum += b0[y * width + x];
-                    sum2 += b0[y * width + x] * b0[y * width + x];
-                }
+                if (outline.contains(x, y)) sp.add(new float[]{x, y, b0[y * width + x]});
         scoreX = new float[sp.size()];
         scoreY = new float[sp.size()];
         scoreT = new float[sp.size()];
         for (int i = 0; i < sp.size(); i++) { scoreX[i] = sp.get(i)[0]; scoreY[i] = sp.get(i)[1]; scoreT[i] = sp.get(i)[2]; }
-        double m = sp.isEmpty() ? 0 : sum / sp.size();
-        referenceBandStd = sp.isEmpty() ? 0 : Math.sqrt(Math.max(0, sum2 / sp.size() - m * m));
         patches = selectPatches();
         level0Box = level0Box();
         levelOneSpread = Pyramid.spread(pyramid.bandPass[Math.min(1, levels - 1)]);
@@ -157,38 +149,30 @@ final class ReferenceModel {
         return new ReferenceModel(ref, board, config, false, null);
     }
 
-    /** A frame graded ok during heating, prepared as the reference of a chain link. */
-    static ReferenceModel prepareHeated(Frame ref, Board board, RegistrationConfig config) {
-        return prepareHeated(ref, board, config, null);
-    }
-
     /**
-     * As {@link #prepareHeated(Frame, Board, RegistrationConfig)}, built in the caller's scratch pyramid (the
-     * calling thread's, reused link after link) when the model will not keep it (no features: method "search").
+     * A frame graded ok during heating, prepared as the reference of a chain link; built in the caller's scratch
+     * pyramid (the calling thread's, reused link after link) when the model will not keep it (no features: method
+     * "search"), else in its own.
      */
     static ReferenceModel prepareHeated(Frame ref, Board board, RegistrationConfig config, Pyramid scratch) {
         return new ReferenceModel(ref, board, config, true, config.method().equals("search") ? scratch : null);
     }
 
     private double[] level0Box() {
-        double x0 = Double.POSITIVE_INFINITY, y0 = Double.POSITIVE_INFINITY;
-        double x1 = Double.NEGATIVE_INFINITY, y1 = Double.NEGATIVE_INFINITY;
-        Level l0 = level[0];
-        for (int i = 0; i < l0.n; i++) {
-            x0 = Math.min(x0, l0.x[i]); x1 = Math.max(x1, l0.x[i]); y0 = Math.min(y0, l0.y[i]); y1 = Math.max(y1, l0.y[i]);
-        }
-        for (int i = 0; i < scoreX.length; i++) {
-            x0 = Math.min(x0, scoreX[i]); x1 = Math.max(x1, scoreX[i]); y0 = Math.min(y0, scoreY[i]); y1 = Math.max(y1, scoreY[i]);
-        }
+        double[] box = {Double.POSITIVE_INFINITY, Double.POSITIVE_INFINITY, Double.NEGATIVE_INFINITY,
+                Double.NEGATIVE_INFINITY};
+        for (int i = 0; i < level[0].n; i++) grow(box, level[0].x[i], level[0].y[i]);
+        for (int i = 0; i < scoreX.length; i++) grow(box, scoreX[i], scoreY[i]);
         for (Patch p : patches)
-            for (int k = 0; k < p.dx.length; k++) {
-                x0 = Math.min(x0, p.cx + p.dx[k]); x1 = Math.max(x1, p.cx + p.dx[k]);
-                y0 = Math.min(y0, p.cy + p.dy[k]); y1 = Math.max(y1, p.cy + p.dy[k]);
-            }
-        for (double[] c : referenceCornersPx) {
-            x0 = Math.min(x0, c[0]); x1 = Math.max(x1, c[0]); y0 = Math.min(y0, c[1]); y1 = Math.max(y1, c[1]);
-        }
-        return new double[]{x0 - 1, y0 - 1, x1 + 1, y1 + 1};
+            for (int k = 0; k < p.dx.length; k++) grow(box, p.cx + p.dx[k], p.cy + p.dy[k]);
+        for (double[] c : referenceCornersPx) grow(box, c[0], c[1]);
+        // and the bilinear samples' neighbours
+        return new double[]{box[0] - 1, box[1] - 1, box[2] + 1, box[3] + 1};
+    }
+
+    private static void grow(double[] box, double x, double y) {
+        box[0] = Math.min(box[0], x); box[1] = Math.min(box[1], y);
+        box[2] = Math.max(box[2], x); box[3] = Math.max(box[3], y);
     }
 
     /** Board corners in level coordinates. */

@@ -96,6 +96,7 @@ class FiltersTest {
         return d;
     }
 
+    /** Against the definition (direct averages of the neighbours, clamped at the image's edges; common practice). */
     @Test
     void highPassOverARectangleEqualsTheDefinitionThereAndWritesNothingElse() {
         int w = 53, h = 41, r = 4;
@@ -123,6 +124,11 @@ class FiltersTest {
                 }
         }
     }
+    /**
+     * Two linear filters applied one after the other equal their combined kernel, evaluated only where the second
+     * one samples (common practice: convolution is associative); the two-step filters are checked against their
+     * definitions above, and 1e-4 allows for float sums taken in another order.
+     */
     @Test
     void gaussianHalveEqualsTheBlurThenTheBlockAverage() {
         for (int[] size : new int[][]{{64, 48}, {33, 27}, {9, 7}, {2, 2}, {3, 8}}) {
@@ -138,6 +144,7 @@ class FiltersTest {
         }
     }
 
+    /** A filter evaluated on part of the image gives the whole image's values there (common practice). */
     @Test
     void gaussianOverARectangleEqualsTheWholeImagesThere() {
         int w = 31, h = 22;

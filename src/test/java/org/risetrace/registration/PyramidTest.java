@@ -12,7 +12,11 @@ import static org.junit.jupiter.api.Assertions.assertTrue;
 /**
  * Level 0 made only where a mapping needs it: the coarser levels as before, level 0 NaN until asked for, equal to
  * the whole frame's filter inside the region asked for, never another frame's values outside it, and a mapped
- * board's box (plus the margin) inside the region a mapping asks for.
+ * board's box (plus the margin) inside the region a mapping asks for. The reference values are the filters applied
+ * the plain way, over the whole frame (each checked against its definition in {@link FiltersTest}); tolerances allow
+ * for float sums taken in another order. The projective image of a rectangle lies inside the box of its mapped
+ * corners when every corner is in front of the camera (common practice: a homography maps convex sets with
+ * positive denominators to convex sets).
  */
 class PyramidTest {
     private static float[] random(int n, long seed) {

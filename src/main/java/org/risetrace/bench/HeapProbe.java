@@ -20,6 +20,8 @@ import java.util.Locale;
  * of the pools' own peaks (reached at different moments), G the largest heap after any collection (a young collection leaves
  * old garbage), L the largest heap after a full collection at ten moments of the run (each tenth of the frames),
  * R the heap still in use after a full collection with the result held; L and R less the heap in use before.
+ * Arguments: series folder, output folder, and optionally the number of worker threads (default: as
+ * {@code analyze}).
  */
 public final class HeapProbe {
     private HeapProbe() {
@@ -27,6 +29,7 @@ public final class HeapProbe {
 
     public static void main(String[] args) {
         Path series = Path.of(args[0]), out = Path.of(args[1]);
+        int threads = args.length > 2 ? Integer.parseInt(args[2]) : SeriesAnalyzer.defaultThreads();
         long before = HeapWatch.usedAfterFullGc();
         try (HeapWatch watch = new HeapWatch()) {
             long t0 = System.nanoTime();
@@ -39,7 +42,7 @@ public final class HeapProbe {
                 if (done * 10L / total != (done - 1) * 10L / total) live[0] = Math.max(live[0], HeapWatch.usedAfterFullGc());
             };
             Analysis a = SeriesAnalyzer.analyze(s, b, series.resolve("board.json"), series.toString(),
-                    AnalysisOptions.defaults(), SeriesAnalyzer.emissivity(s.profile()), SeriesAnalyzer.defaultThreads(),
+                    AnalysisOptions.defaults(), SeriesAnalyzer.emissivity(s.profile()), threads,
                     sampler);
             Reports.writeAll(a, out, null, true);
             double seconds = (System.nanoTime() - t0) / 1e9;

@@ -63,17 +63,24 @@ class BenchCommandTest {
             assertTrue(c.get("timing").asText().contains("analysis"), c.toString());
         }
         JsonNode heap = r.get("heap");
-        assertEquals(3, heap.size());
+        assertEquals(5, heap.size());
         assertEquals(12, heap.get(0).get("frames").asInt());
         assertEquals(120, heap.get(1).get("frames").asInt()); // ten times as long, in the same heap limit
         assertEquals("256m", heap.get(1).get("heap_limit").asText());
         assertEquals("default", heap.get(2).get("heap_limit").asText());
+        // the short and the long series again, in a heap near what one thread needs, on one thread
+        assertEquals(12, heap.get(3).get("frames").asInt());
+        assertEquals(120, heap.get(4).get("frames").asInt());
+        for (int k = 3; k < 5; k++) {
+            assertEquals("128m", heap.get(k).get("heap_limit").asText());
+            assertEquals(1, heap.get(k).get("threads").asInt());
+        }
         for (JsonNode h : heap)
             assertTrue(h.get("pool_peak_bytes").asLong() > 0 && h.get("live_max_bytes").asLong() > 0
                     && h.get("ms_per_frame").asDouble() > 0
                     // the heap at its fullest holds at least what it kept after a collection
                     && h.get("peak_in_use_bytes").asLong() >= h.get("after_gc_max_bytes").asLong(), h.toString());
-        assertEquals(7, r.get("targets").size());
+        assertEquals(8, r.get("targets").size());
         // each target's value is the quotient it names, from the numbers above
         double worst = Double.POSITIVE_INFINITY;
         for (JsonNode s : r.get("series")) worst = Math.min(worst, s.get("analysis_fps").asDouble() / s.get("decode_fps").asDouble());
@@ -83,8 +90,11 @@ class BenchCommandTest {
         assertEquals(heap.get(1).get("live_max_bytes").asDouble() / Math.max(heap.get(0).get("live_max_bytes").asDouble(),
                         heap.get(2).get("live_max_bytes").asDouble()),
                 r.get("targets").get(4).get("value").asDouble(), 1e-9);
-        assertEquals(heap.get(1).get("peak_in_use_bytes").asDouble() / heap.get(0).get("peak_in_use_bytes").asDouble(),
+        assertEquals(heap.get(4).get("after_gc_max_bytes").asDouble() / heap.get(3).get("after_gc_max_bytes").asDouble(),
                 r.get("targets").get(5).get("value").asDouble(), 1e-9);
+        assertEquals(heap.get(4).get("ms_per_frame").asDouble() / heap.get(3).get("ms_per_frame").asDouble(),
+                r.get("targets").get(6).get("value").asDouble(), 1e-9);
+        assertTrue(b.get("warm_up_batches").asInt() == 0, "--quick times the batch without warming up");
         try (Stream<Path> left = Files.list(dir)) {
             assertEquals(0, left.count(), "the generated series are removed");
         }
@@ -94,10 +104,12 @@ class BenchCommandTest {
     void tableShowsEveryRowAndMarksMissedTargets() {
         Bench.SeriesRow s = new Bench.SeriesRow("hand-held-png", 300, 50, 150, 60, 30, 55, 80L << 20, "identified Q1");
         Bench.Result r = new Bench.Result(2, "17", 1.0, 1.2, 640, 512, false, List.of(s),
-                new Bench.BatchRow(4, 1200, 20, 35, 36), List.of(new Bench.ColdRow("x", 3.5, "t")),
-                List.of(new Bench.HeapRow(300, "256m", 25, 180L << 20, 200L << 20, 90L << 20, 60L << 20, 1L << 20, "identified"),
-                        new Bench.HeapRow(3000, "256m", 24, 207L << 20, 210L << 20, 99L << 20, 62L << 20, 3L << 20, "identified"),
-                        new Bench.HeapRow(300, "default", 22, 250L << 20, 300L << 20, 95L << 20, 61L << 20, 1L << 20, "identified")),
+                new Bench.BatchRow(4, 1200, 20, 35, 36, 3, 0.04, 0.02), List.of(new Bench.ColdRow("x", 3.5, "t")),
+                List.of(new Bench.HeapRow(300, "256m", 0, 25, 180L << 20, 200L << 20, 90L << 20, 60L << 20, 1L << 20, "identified"),
+                        new Bench.HeapRow(3000, "256m", 0, 24, 207L << 20, 210L << 20, 99L << 20, 62L << 20, 3L << 20, "identified"),
+                        new Bench.HeapRow(300, "default", 0, 22, 250L << 20, 300L << 20, 95L << 20, 61L << 20, 1L << 20, "identified"),
+                        new Bench.HeapRow(300, "128m", 1, 40, 120L << 20, 130L << 20, 80L << 20, 50L << 20, 1L << 20, "identified"),
+                        new Bench.HeapRow(3000, "128m", 1, 50, 124L << 20, 140L << 20, 92L << 20, 52L << 20, 3L << 20, "identified")),
                 null);
         r = new Bench.Result(r.cores(), r.java(), r.loadAverageBefore(), r.loadAverageAfter(), r.width(), r.height(),
                 r.quick(), r.series(), r.batch(), r.cold(), r.heap(), Bench.targets(r.series(), r.batch(), r.cold(), r.heap()));
@@ -112,7 +124,13 @@ class BenchCommandTest {
         assertTrue(t.lines().anyMatch(l -> l.startsWith("  met ") && l.contains("time per frame") && l.contains("1.09")), t);
         assertTrue(t.lines().anyMatch(l -> l.startsWith("  met ") && l.contains("live heap") && l.contains("1.02")), t);
         assertTrue(t.lines().anyMatch(l -> l.startsWith("  met ") && l.contains("cold analyze") && l.contains("3.50")), t);
-        // 207 MiB at its fullest against 180: 1.15, over 1.1
-        assertTrue(t.lines().anyMatch(l -> l.startsWith("  MISS") && l.contains("peak heap in use") && l.contains("1.15")), t);
+        // in the tight heap: 92 MiB after collections against 80: 1.15, over 1.1; 50 ms per frame against 40: 1.25
+        assertTrue(t.lines().anyMatch(l -> l.startsWith("  MISS") && l.contains("peak heap after collections")
+                && l.contains("128m, one thread") && l.contains("1.15")), t);
+        assertTrue(t.lines().anyMatch(l -> l.startsWith("  MISS") && l.contains("time per frame, 3000 / 300")
+                && l.contains("1.25")), t);
+        // with room to spare the peak in use is shown, not judged: 207 MiB against 180
+        assertTrue(t.contains("peak in use 3000 / 300 frames with 256m: 1.15"), t);
+        assertTrue(t.contains("(3 untimed batches before, compilers 4 % of the last one's wall time; compilers 2 % of the timed"), t);
     }
 }

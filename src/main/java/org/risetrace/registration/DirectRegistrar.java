@@ -16,7 +16,12 @@ import java.util.Map;
 final class DirectRegistrar implements Registrar {
     private final ReferenceModel ref;
     private final RegistrationConfig config;
-    private final ThreadLocal<Workspace> workspace;
+    /**
+     * The calling thread's workspace. A chain link is made and used by one thread only and has one workspace of its
+     * own: with a thread-local one, each replaced link left its workspace (and the frame it last graded ok) in the
+     * thread's map until the map happened to clear the stale entry, so the heap grew with the links made.
+     */
+    private final java.util.function.Supplier<Workspace> workspace;
 
     private static final class Workspace {
         Pyramid pyramid = new Pyramid();
@@ -96,7 +101,13 @@ final class DirectRegistrar implements Registrar {
         this.mayChain = mayChain;
         this.ref = ref;
         this.config = config;
-        this.workspace = ThreadLocal.withInitial(Workspace::new);
+        if (mayChain) {
+            ThreadLocal<Workspace> perThread = ThreadLocal.withInitial(Workspace::new);
+            this.workspace = perThread::get;
+        } else {
+            Workspace own = new Workspace();
+            this.workspace = () -> own;
+        }
     }
 
     @Override

@@ -24,6 +24,7 @@ import org.risetrace.registration.Homography;
 import org.risetrace.registration.RegistrationStatus;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertTrue;
 
 /**
  * The same series analysed several times on two worker threads gives the same numbers to the last digit: a
@@ -108,5 +109,61 @@ class ReproducibilityTest {
                     assertEquals(first + threads * k, frames.get(k), "seed " + seed + ": " + seen);
             }
         }
+    }
+
+    /**
+     * One worker thread asked for is one thread: it registers every frame in order and is also the thread that
+     * adds each result to the series (progress reports come from it, 1 to n in order), and it is not the caller's
+     * thread, whose thread-local state would outlive the series.
+     */
+    @Test
+    void oneThreadDoesAllTheWorkInOrder() {
+        int n = 25;
+        Board board = new Board("b", new double[]{10, 10},
+                new Outline("f0.png", new double[][]{{0, 0}, {9, 0}, {9, 9}, {0, 9}}, null), List.of(), null);
+        List<Thread> registering = new ArrayList<>(), reporting = new ArrayList<>();
+        List<Integer> order = new ArrayList<>(), progress = new ArrayList<>();
+        FrameSource source = new FrameSource() {
+            @Override public int size() { return n; }
+            @Override public String fileName(int i) { return "f" + i + ".png"; }
+            @Override public double tSeconds(int i) { return i; }
+            @Override public Frame read(int i) {
+                return new Frame(10, 10, new float[100], i, null, Path.of(fileName(i)), "00",
+                        new Decoding("test", 32, "f32-celsius", ""));
+            }
+        };
+        BoardMapper recording = new BoardMapper() {
+            @Override public FrameRegistration register(Frame frame) {
+                registering.add(Thread.currentThread());
+                order.add((int) frame.tSeconds());
+                return new FrameRegistration(frame.fileName(), frame.tSeconds(), RegistrationStatus.FAILED, "test",
+                        null, null, 0, Double.NaN, Double.NaN);
+            }
+
+            @Override public BoardRaster rectify(Frame frame, Homography boardToFrame) {
+                throw new AssertionError("no usable frame");
+            }
+        };
+        double[] times = new double[n];
+        for (int i = 0; i < n; i++) times[i] = i;
+        AnalysisOptions o = AnalysisOptions.defaults();
+        SeriesAnalysis sa = new SeriesAnalysis(board, o, BaselinePlan.plan(times, null, o.baselineFrames(),
+                o.lastFrames()), EmissivityModel.none(), new SeriesAnalysis.Context("mem", "board.json",
+                "f32-celsius", null, null, "test", "none"));
+        Analysis a = Analyzer.run(source, board, () -> recording, () -> null, sa, 1, (done, total) -> {
+            reporting.add(Thread.currentThread());
+            progress.add(done);
+        });
+        assertEquals(n, a.result().frames().size());
+        List<Integer> expected = new ArrayList<>();
+        for (int i = 0; i < n; i++) expected.add(i);
+        assertEquals(expected, order);
+        List<Integer> steps = new ArrayList<>();
+        for (int i = 1; i <= n; i++) steps.add(i);
+        assertEquals(steps, progress);
+        Thread worker = registering.get(0);
+        assertTrue(registering.stream().allMatch(t -> t == worker), "one thread registers every frame");
+        assertTrue(reporting.stream().allMatch(t -> t == worker), "the same thread adds each frame and reports");
+        assertTrue(worker != Thread.currentThread(), "a thread of its own, not the caller's");
     }
 }

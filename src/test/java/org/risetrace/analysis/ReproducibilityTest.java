@@ -58,8 +58,7 @@ class ReproducibilityTest {
     @Test
     void everyWorkerSeesTheSameFramesInOrderWhateverTheTiming() {
         int n = 40, threads = 2;
-        Board board = new Board("b", new double[]{10, 10},
-                new Outline("f0.png", new double[][]{{0, 0}, {9, 0}, {9, 9}, {0, 9}}, null), List.of(), null);
+        Board board = tinyBoard();
         for (long seed = 1; seed <= 3; seed++) {
             Random jitter = new Random(seed);
             long[] delayUs = new long[n];
@@ -79,24 +78,9 @@ class ReproducibilityTest {
                             new Decoding("test", 32, "f32-celsius", ""));
                 }
             };
-            BoardMapper recording = new BoardMapper() {
-                @Override public FrameRegistration register(Frame frame) {
-                    int i = (int) frame.tSeconds();
-                    seen.computeIfAbsent(Thread.currentThread(), t -> new ArrayList<>()).add(i);
-                    return new FrameRegistration(frame.fileName(), i, RegistrationStatus.FAILED, "test", null, null,
-                            0, Double.NaN, Double.NaN);
-                }
-
-                @Override public BoardRaster rectify(Frame frame, Homography boardToFrame) {
-                    throw new AssertionError("no usable frame");
-                }
-            };
-            double[] times = new double[n];
-            for (int i = 0; i < n; i++) times[i] = i;
-            AnalysisOptions o = AnalysisOptions.defaults();
-            SeriesAnalysis sa = new SeriesAnalysis(board, o, BaselinePlan.plan(times, null, o.baselineFrames(),
-                    o.lastFrames()), EmissivityModel.none(), new SeriesAnalysis.Context("mem", "board.json",
-                    "f32-celsius", null, null, "test", "none"));
+            BoardMapper recording = failingMapper(frame -> seen.computeIfAbsent(Thread.currentThread(),
+                    t -> new ArrayList<>()).add((int) frame.tSeconds()));
+            SeriesAnalysis sa = seriesAnalysis(board, n);
             // every frame fails registration on purpose: only the assignment matters here. The run completes (a
             // catch-all here used to hide any exception, though none is thrown): every frame is recorded, none used
             Analysis a = Analyzer.run(source, board, () -> recording, () -> null, sa, threads, Analyzer.Progress.NONE);
@@ -119,8 +103,7 @@ class ReproducibilityTest {
     @Test
     void oneThreadDoesAllTheWorkInOrder() {
         int n = 25;
-        Board board = new Board("b", new double[]{10, 10},
-                new Outline("f0.png", new double[][]{{0, 0}, {9, 0}, {9, 9}, {0, 9}}, null), List.of(), null);
+        Board board = tinyBoard();
         List<Thread> registering = new ArrayList<>(), reporting = new ArrayList<>();
         List<Integer> order = new ArrayList<>(), progress = new ArrayList<>();
         FrameSource source = new FrameSource() {
@@ -132,24 +115,11 @@ class ReproducibilityTest {
                         new Decoding("test", 32, "f32-celsius", ""));
             }
         };
-        BoardMapper recording = new BoardMapper() {
-            @Override public FrameRegistration register(Frame frame) {
-                registering.add(Thread.currentThread());
-                order.add((int) frame.tSeconds());
-                return new FrameRegistration(frame.fileName(), frame.tSeconds(), RegistrationStatus.FAILED, "test",
-                        null, null, 0, Double.NaN, Double.NaN);
-            }
-
-            @Override public BoardRaster rectify(Frame frame, Homography boardToFrame) {
-                throw new AssertionError("no usable frame");
-            }
-        };
-        double[] times = new double[n];
-        for (int i = 0; i < n; i++) times[i] = i;
-        AnalysisOptions o = AnalysisOptions.defaults();
-        SeriesAnalysis sa = new SeriesAnalysis(board, o, BaselinePlan.plan(times, null, o.baselineFrames(),
-                o.lastFrames()), EmissivityModel.none(), new SeriesAnalysis.Context("mem", "board.json",
-                "f32-celsius", null, null, "test", "none"));
+        BoardMapper recording = failingMapper(frame -> {
+            registering.add(Thread.currentThread());
+            order.add((int) frame.tSeconds());
+        });
+        SeriesAnalysis sa = seriesAnalysis(board, n);
         Analysis a = Analyzer.run(source, board, () -> recording, () -> null, sa, 1, (done, total) -> {
             reporting.add(Thread.currentThread());
             progress.add(done);
@@ -165,5 +135,36 @@ class ReproducibilityTest {
         assertTrue(registering.stream().allMatch(t -> t == worker), "one thread registers every frame");
         assertTrue(reporting.stream().allMatch(t -> t == worker), "the same thread adds each frame and reports");
         assertTrue(worker != Thread.currentThread(), "a thread of its own, not the caller's");
+    }
+
+    /** A 10 x 10 mm board with no parts, its outline marked on f0.png. */
+    private static Board tinyBoard() {
+        return new Board("b", new double[]{10, 10},
+                new Outline("f0.png", new double[][]{{0, 0}, {9, 0}, {9, 9}, {0, 9}}, null), List.of(), null);
+    }
+
+    /** A mapper that tells {@code seen} of every frame and fails its registration (only the assignment matters). */
+    private static BoardMapper failingMapper(java.util.function.Consumer<Frame> seen) {
+        return new BoardMapper() {
+            @Override public FrameRegistration register(Frame frame) {
+                seen.accept(frame);
+                return new FrameRegistration(frame.fileName(), frame.tSeconds(), RegistrationStatus.FAILED, "test",
+                        null, null, 0, Double.NaN, Double.NaN);
+            }
+
+            @Override public BoardRaster rectify(Frame frame, Homography boardToFrame) {
+                throw new AssertionError("no usable frame");
+            }
+        };
+    }
+
+    /** The series accumulator for n frames at 0, 1, 2 ... s. */
+    private static SeriesAnalysis seriesAnalysis(Board board, int n) {
+        double[] times = new double[n];
+        for (int i = 0; i < n; i++) times[i] = i;
+        AnalysisOptions o = AnalysisOptions.defaults();
+        return new SeriesAnalysis(board, o, BaselinePlan.plan(times, null, o.baselineFrames(), o.lastFrames()),
+                EmissivityModel.none(), new SeriesAnalysis.Context("mem", "board.json", "f32-celsius", null, null,
+                "test", "none"));
     }
 }

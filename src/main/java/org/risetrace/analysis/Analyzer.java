@@ -62,11 +62,7 @@ public final class Analyzer {
         // rates differed in the fourth digit between runs)
         ExecutorService[] pools = new ExecutorService[threads];
         for (int k = 0; k < threads; k++)
-            pools[k] = Executors.newSingleThreadExecutor(r -> {
-                Thread t = new Thread(r, "risetrace-frame");
-                t.setDaemon(true);
-                return t;
-            });
+            pools[k] = Executors.newSingleThreadExecutor(Analyzer::frameThread);
         ThreadLocal<Worker> workers = ThreadLocal.withInitial(() -> new Worker(board, mappers.get(), ambient.get()));
         ArrayDeque<Future<FrameSample>> inFlight = new ArrayDeque<>();
         int window = 2 * threads + 1, done = 0;
@@ -99,11 +95,7 @@ public final class Analyzer {
     private static Analysis runOnOneThread(FrameSource frames, Board board, Supplier<BoardMapper> mappers,
                                            Supplier<AmbientSampler> ambient, SeriesAnalysis analysis,
                                            java.util.function.Consumer<FrameSample> sink, Progress progress) {
-        ExecutorService one = Executors.newSingleThreadExecutor(r -> {
-            Thread t = new Thread(r, "risetrace-frame");
-            t.setDaemon(true);
-            return t;
-        });
+        ExecutorService one = Executors.newSingleThreadExecutor(Analyzer::frameThread);
         try {
             take(one.submit(() -> {
                 Worker worker = new Worker(board, mappers.get(), ambient.get());
@@ -118,6 +110,13 @@ public final class Analyzer {
             one.shutdownNow();
         }
         return analysis.finish();
+    }
+
+    /** A worker thread: named for thread dumps, a daemon so a stuck frame cannot keep the JVM alive. */
+    private static Thread frameThread(Runnable r) {
+        Thread t = new Thread(r, "risetrace-frame");
+        t.setDaemon(true);
+        return t;
     }
 
     private static <T> T take(Future<T> f) {

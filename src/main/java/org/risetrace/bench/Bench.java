@@ -497,21 +497,24 @@ public final class Bench {
                     h.peakInUseBytes() / 1048576.0, h.poolPeakBytes() / 1048576.0,
                     h.afterGcMaxBytes() / 1048576.0, h.liveMaxBytes() / 1048576.0, h.retainedBytes() / 1048576.0,
                     h.verdict()));
-        if (r.heap().size() > 1)
+        if (r.heap().size() >= 5) {
+            List<HeapRow> h = r.heap(); // 0, 1: short and long at 256m; 3, 4: short and long at 128m
             b.append(String.format(Locale.ROOT, "  (%d / %d frames: peak in use %.2f with %s, %.2f with %s; largest after "
                             + "any collection %.2f and %.2f: these follow when the collector runs, not what the "
-                            + "analysis holds)%n",
-                    r.heap().get(1).frames(), r.heap().get(0).frames(),
-                    (double) r.heap().get(1).peakInUseBytes() / r.heap().get(0).peakInUseBytes(), r.heap().get(1).heapLimit(),
-                    r.heap().size() > 4 ? (double) r.heap().get(4).peakInUseBytes() / r.heap().get(3).peakInUseBytes() : Double.NaN,
-                    r.heap().size() > 4 ? r.heap().get(4).heapLimit() : "-",
-                    (double) r.heap().get(1).afterGcMaxBytes() / r.heap().get(0).afterGcMaxBytes(),
-                    r.heap().size() > 4 ? (double) r.heap().get(4).afterGcMaxBytes() / r.heap().get(3).afterGcMaxBytes() : Double.NaN));
+                            + "analysis holds)%n", h.get(1).frames(), h.get(0).frames(),
+                    ratio(h.get(1), h.get(0), HeapRow::peakInUseBytes), h.get(1).heapLimit(),
+                    ratio(h.get(4), h.get(3), HeapRow::peakInUseBytes), h.get(4).heapLimit(),
+                    ratio(h.get(1), h.get(0), HeapRow::afterGcMaxBytes), ratio(h.get(4), h.get(3), HeapRow::afterGcMaxBytes)));
+        }
         b.append("\ntargets:\n");
         for (Target t : r.targets())
             b.append(String.format(Locale.ROOT, "  %-4s %-78s %8.2f  (%s)%n", t.met() ? "met" : "MISS", t.what(),
                     t.value(), t.bound()));
         return b.toString();
+    }
+
+    private static double ratio(HeapRow a, HeapRow b, java.util.function.ToLongFunction<HeapRow> f) {
+        return (double) f.applyAsLong(a) / f.applyAsLong(b);
     }
 
     /** The result as JSON (snake_case names). */

@@ -18,8 +18,8 @@ final class DirectRegistrar implements Registrar {
     private final RegistrationConfig config;
     /**
      * The calling thread's workspace. A chain link is made and used by one thread only and has one workspace of its
-     * own: with a thread-local one, each replaced link left its workspace (and the frame it last graded ok) in the
-     * thread's map until the map happened to clear the stale entry, so the heap grew with the links made.
+     * own: with a thread-local one, each replaced link left its workspace (its buffers, the frame it last graded ok)
+     * in the thread's map until the map happened to clear the stale entry, so the heap grew with the links made.
      */
     private final java.util.function.Supplier<Workspace> workspace;
 

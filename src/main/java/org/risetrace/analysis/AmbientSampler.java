@@ -3,6 +3,7 @@ package org.risetrace.analysis;
 import org.risetrace.board.Area;
 import org.risetrace.board.Board;
 import org.risetrace.frame.Frame;
+import org.risetrace.numeric.OrderStatistics;
 import org.risetrace.registration.Homography;
 
 import java.util.Arrays;
@@ -101,7 +102,6 @@ public final class AmbientSampler {
             buffer[n++] = (float) val;
         }
         if (n < MIN_POINTS) return Double.NaN;
-        Arrays.sort(buffer, 0, n);
-        return (n & 1) == 1 ? buffer[n / 2] : 0.5 * (buffer[n / 2 - 1] + buffer[n / 2]);
+        return OrderStatistics.median(buffer, n);
     }
 }

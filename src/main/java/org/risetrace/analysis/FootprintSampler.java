@@ -1,6 +1,7 @@
 package org.risetrace.analysis;
 
 import org.risetrace.board.Part;
+import org.risetrace.numeric.OrderStatistics;
 import org.risetrace.registration.BoardRaster;
 
 import java.util.Arrays;
@@ -106,17 +107,8 @@ public final class FootprintSampler {
             }
             out[o + MAX] = max;
             out[o + MEAN] = sum / n;
-            out[o + P95] = percentile(buffer, n, 0.95);
+            out[o + P95] = OrderStatistics.percentile(buffer, n, 0.95);
         }
-    }
-
-    /** Linear-interpolated percentile (the "R-7" definition, Hyndman and Fan 1996) of the first n values; sorts them. */
-    static double percentile(float[] values, int n, double q) {
-        Arrays.sort(values, 0, n);
-        double h = (n - 1) * q;
-        int lo = (int) Math.floor(h);
-        int hi = Math.min(n - 1, lo + 1);
-        return values[lo] + (h - lo) * (values[hi] - values[lo]);
     }
 
     /**
@@ -146,6 +138,6 @@ public final class FootprintSampler {
             float v = 0.5f * (celsius[k] + celsius[y * width + x]);
             if (!Float.isNaN(v)) buffer[n++] = v;
         }
-        return n == 0 ? Double.NaN : percentile(buffer, n, 0.95);
+        return n == 0 ? Double.NaN : OrderStatistics.percentile(buffer, n, 0.95);
     }
 }

@@ -1,5 +1,7 @@
 package org.risetrace.registration;
 
+import org.risetrace.numeric.OrderStatistics;
+
 import java.util.ArrayList;
 import java.util.List;
 
@@ -190,13 +192,13 @@ final class CoarseSearch {
      */
     static void clipInPlace(float[] f, int n, float[] template) {
         float[] t = java.util.Arrays.copyOf(template, template.length);
-        float med = DirectAligner.select(t, t.length, t.length / 2);
+        float med = OrderStatistics.select(t, t.length, t.length / 2);
         for (int i = 0; i < t.length; i++) t[i] = Math.abs(template[i] - med);
-        double sigma = 1.4826 * DirectAligner.select(t, t.length, t.length / 2);
+        double sigma = 1.4826 * OrderStatistics.select(t, t.length, t.length / 2);
         float[] tmp = new float[n];
         int m = 0;
         for (int i = 0; i < n; i++) if (f[i] == f[i]) tmp[m++] = f[i];
-        float fmed = DirectAligner.select(tmp, m, m / 2);
+        float fmed = OrderStatistics.select(tmp, m, m / 2);
         float lo = (float) (fmed - CLIP_SIGMAS * sigma), hi = (float) (fmed + CLIP_SIGMAS * sigma);
         for (int i = 0; i < n; i++) {
             float v = f[i];

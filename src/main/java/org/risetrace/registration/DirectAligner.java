@@ -1,5 +1,7 @@
 package org.risetrace.registration;
 
+import org.risetrace.numeric.OrderStatistics;
+
 /**
  * Inverse-compositional Gauss-Newton alignment of a frame's band-passed pyramid to the reference template
  * (Baker and Matthews, "Lucas-Kanade 20 Years On", IJCV 2004), coarse to fine, with an 8-parameter homography
@@ -129,7 +131,7 @@ final class DirectAligner {
             if (f != f) continue;
             if (seen++ % stride == 0) abs[m++] = f - lv.t[i];
         }
-        double offset = select(abs, m, m / 2);
+        double offset = OrderStatistics.select(abs, m, m / 2);
         m = 0;
         seen = 0;
         for (int i = 0; i < n; i++) {
@@ -139,7 +141,7 @@ final class DirectAligner {
             err[i] = e;
             if (seen++ % stride == 0) abs[m++] = Math.abs(e);
         }
-        double sigma = Math.max(1.4826 * select(abs, m, m / 2), 1e-9);
+        double sigma = Math.max(1.4826 * OrderStatistics.select(abs, m, m / 2), 1e-9);
         // Huber weights while far from the solution, then Tukey's biweight, which ignores pixels that changed
         // (parts heating) altogether (robust M-estimation, Huber 1981; Tukey constants 1.345 and 4.685 give 95 %
         // efficiency under Gaussian noise)
@@ -190,7 +192,7 @@ final class DirectAligner {
             if (f == f) abs[valid++] = f - lv.t[i];
         }
         if (valid < 16) return Double.NaN;
-        double offset = select(abs, valid, valid / 2);
+        double offset = OrderStatistics.select(abs, valid, valid / 2);
         int m = 0;
         for (int i = 0; i < n; i++) {
             float f = warped[i];
@@ -199,7 +201,7 @@ final class DirectAligner {
             err[i] = e;
             abs[m++] = Math.abs(e);
         }
-        double sigma = Math.max(1.4826 * select(abs, m, m / 2), 1e-9), k = 4.685 * sigma;
+        double sigma = Math.max(1.4826 * OrderStatistics.select(abs, m, m / 2), 1e-9), k = 4.685 * sigma;
         int p = params == 4 ? 4 : 8;
         double[] a = new double[p * p];
         double sw = 0, swe2 = 0;
@@ -287,12 +289,12 @@ final class DirectAligner {
         int stride = Math.max(1, valid / MEDIAN_SAMPLES);
         int m = 0, seen = 0;
         for (int i = 0; i < n; i++) if (warped[i] == warped[i] && seen++ % stride == 0) abs[m++] = change[i];
-        double med = select(abs, m, m / 2);
+        double med = OrderStatistics.select(abs, m, m / 2);
         m = 0;
         seen = 0;
         for (int i = 0; i < n; i++)
             if (warped[i] == warped[i] && seen++ % stride == 0) abs[m++] = (float) Math.abs(change[i] - med);
-        double s = 1.4826 * select(abs, m, m / 2);
+        double s = 1.4826 * OrderStatistics.select(abs, m, m / 2);
         if (!(s > 0)) return;
         double lim = MASK_K * s;
         for (int i = 0; i < n; i++)
@@ -408,24 +410,5 @@ final class DirectAligner {
         }
         for (double v : x) if (!Double.isFinite(v)) return null;
         return x;
-    }
-
-    /** k-th smallest of the first n values (Hoare's selection); reorders the array. */
-    static float select(float[] v, int n, int k) {
-        if (n == 0) return 0;
-        int lo = 0, hi = n - 1;
-        while (lo < hi) {
-            float pivot = v[(lo + hi) >>> 1];
-            int i = lo, j = hi;
-            while (i <= j) {
-                while (v[i] < pivot) i++;
-                while (v[j] > pivot) j--;
-                if (i <= j) { float t = v[i]; v[i] = v[j]; v[j] = t; i++; j--; }
-            }
-            if (k <= j) hi = j;
-            else if (k >= i) lo = i;
-            else break;
-        }
-        return v[k];
     }
 }

@@ -1,5 +1,7 @@
 package org.risetrace.registration;
 
+import org.risetrace.numeric.OrderStatistics;
+
 import org.risetrace.board.Board;
 import org.risetrace.frame.Frame;
 
@@ -538,9 +540,9 @@ final class DirectRegistrar implements Registrar {
         if (visible < config.minVisibleFraction() || valid < 16)
             return new Grade(h, RegistrationStatus.FAILED, String.format(Locale.ROOT,
                     "only %.0f %% of the board inside the frame", 100 * visible), Double.NaN, Double.NaN, 0);
-        double offset = DirectAligner.select(diff, valid, valid / 2);
+        double offset = OrderStatistics.select(diff, valid, valid / 2);
         for (int i = 0; i < valid; i++) diff[i] = Math.abs(diff[i] - (float) offset);
-        double sigma = 1.4826 * DirectAligner.select(diff, valid, valid / 2);
+        double sigma = 1.4826 * OrderStatistics.select(diff, valid, valid / 2);
         // similarity: normalised cross-correlation over the board pixels that did not change (residual within
         // 3 robust standard deviations); the changed fraction is reported separately
         double sf = 0, sf2 = 0, sft = 0, st = 0, st2 = 0;

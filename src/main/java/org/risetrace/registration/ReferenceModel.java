@@ -1,5 +1,7 @@
 package org.risetrace.registration;
 
+import org.risetrace.numeric.OrderStatistics;
+
 import org.risetrace.board.Board;
 import org.risetrace.frame.Frame;
 
@@ -213,7 +215,7 @@ final class ReferenceModel {
         int keep = Math.min(l == 0 ? MAX_TEMPLATE_PIXELS : MAX_COARSE_TEMPLATE_PIXELS,
                 Math.max(Math.min(n, 16), (int) (n * 0.6)));
         // the keep-th largest by selection, not a sort (a chain link prepares a reference during the series)
-        float thr = n == 0 ? 0 : DirectAligner.select(Arrays.copyOf(gm, n), n, Math.max(0, n - keep));
+        float thr = n == 0 ? 0 : OrderStatistics.select(Arrays.copyOf(gm, n), n, Math.max(0, n - keep));
         int m = 0;
         for (int k = 0; k < n; k++) if (gm[k] >= thr && m < keep) m++;
         float[] xs = new float[m], ys = new float[m], ts = new float[m], sd = new float[8 * m], low = new float[m];

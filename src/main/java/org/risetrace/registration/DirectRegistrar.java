@@ -49,6 +49,23 @@ final class DirectRegistrar implements Registrar {
         MappingUncertainty lastGoodUncertainty = MappingUncertainty.NONE, chainBaseUncertainty = MappingUncertainty.NONE;
         /** Uncertainty of the last result on this thread (diagnostics and calibration). */
         MappingUncertainty lastUncertainty = MappingUncertainty.NONE;
+        /**
+         * This frame's homography refinements ({@link #attempt}): the similarity each started from and its grade
+         * (null when the alignment lost the frame). Cleared for every frame.
+         */
+        final List<Homography> refinedFrom = new java.util.ArrayList<>();
+        final List<Grade> refined = new java.util.ArrayList<>();
+        /** Homography refinements made and reused on this thread (tests). */
+        long refinementsMade, refinementsReused;
+    }
+
+    /** Whether a frame's refinements from the same start are reused; false only in tests, to compare. */
+    boolean reuseRefinements = true;
+
+    /** {made, reused} homography refinements on the calling thread, this registrar's own (tests). */
+    long[] refinementCounts() {
+        Workspace ws = workspace.get();
+        return new long[]{ws.refinementsMade, ws.refinementsReused};
     }
 
     /** The grade of a board-to-frame mapping against this registrar's own reference (diagnostics). */
@@ -134,6 +151,8 @@ final class DirectRegistrar implements Registrar {
                 return failed(frame, "frame is " + frame.width() + "x" + frame.height() + ", the reference frame "
                         + ref.width + "x" + ref.height);
             Workspace ws = workspace.get();
+            ws.refinedFrom.clear();
+            ws.refined.clear();
             if (shared == null) {
                 if (!ws.pyramid.build(frame.celsius(), frame.width(), frame.height(), ref.levels))
                     return failed(frame, "frame holds no readings");
@@ -258,12 +277,7 @@ final class DirectRegistrar implements Registrar {
 
     /** True when two mappings put the reference's board corners within 1.5 top-level pixels of each other. */
     private boolean agree(Homography a, Homography b, int top) {
-        double limit = 1.5 * Pyramid.scale(top);
-        for (double[] c : ref.referenceCornersPx) {
-            double[] p = a.apply(c[0], c[1]), q = b.apply(c[0], c[1]);
-            if (!(Math.hypot(p[0] - q[0], p[1] - q[1]) <= limit)) return false;
-        }
-        return true;
+        return cornersWithin(a, b, 1.5 * Pyramid.scale(top));
     }
 
     /**
@@ -288,8 +302,8 @@ final class DirectRegistrar implements Registrar {
         // (on simulated hand-held series skipping them moved one frame of 140 from ok to failed and cut the
         // 640 x 512 benchmark by a tenth)
         if (simple != null && simple.rank() == 0) return simple.betterThan(best) ? simple : best;
-        Grade full = alignAndGrade(ws, simple != null ? simple.refToFrame() : start,
-                simple != null ? Math.min(1, ref.levels - 1) : fromLevel, 8);
+        Grade full = simple != null ? refinedAsHomography(ws, simple.refToFrame())
+                : alignAndGrade(ws, start, fromLevel, 8);
         Grade pick;
         if (simple == null) pick = full;
         else if (full == null) pick = simple;
@@ -297,6 +311,38 @@ final class DirectRegistrar implements Registrar {
         else pick = full.rmsPx() < 0.7 * simple.rmsPx() ? full : simple;
         if (pick == null) return best;
         return pick.betterThan(best) ? pick : best;
+    }
+
+    /**
+     * Starts closer than this (px, at every reference board corner) refine to the same homography: a frame that
+     * grades no better than weak (heating changed the picture) is tried from the last estimate and from each
+     * coarse-search candidate, and those starts mostly settle on the same similarity (on a simulated 300-frame
+     * hand-held series, up to four times in one frame), each then refined as a homography once more. A refinement
+     * moves a mapping by steps down to the alignment's own tolerance of 0.02 px, so 0.01 px apart is the same start.
+     */
+    static final double SAME_START_PX = 0.01;
+
+    /** The homography refined from a similarity (level 1 down), or this frame's earlier one from the same start. */
+    private Grade refinedAsHomography(Workspace ws, Homography similarity) {
+        for (int i = 0; reuseRefinements && i < ws.refinedFrom.size(); i++)
+            if (cornersWithin(ws.refinedFrom.get(i), similarity, SAME_START_PX)) {
+                ws.refinementsReused++;
+                return ws.refined.get(i);
+            }
+        Grade full = alignAndGrade(ws, similarity, Math.min(1, ref.levels - 1), 8);
+        ws.refinementsMade++;
+        ws.refinedFrom.add(similarity);
+        ws.refined.add(full);
+        return full;
+    }
+
+    /** True when the two mappings put every reference board corner within limit px of each other. */
+    private boolean cornersWithin(Homography a, Homography b, double limit) {
+        for (double[] c : ref.referenceCornersPx) {
+            double[] p = a.apply(c[0], c[1]), q = b.apply(c[0], c[1]);
+            if (!(Math.hypot(p[0] - q[0], p[1] - q[1]) <= limit)) return false;
+        }
+        return true;
     }
 
     private Grade alignAndGrade(Workspace ws, Homography start, int fromLevel, int model) {

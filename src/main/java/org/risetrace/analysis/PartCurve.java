@@ -1,7 +1,5 @@
 package org.risetrace.analysis;
 
-import org.risetrace.numeric.OrderStatistics;
-
 import java.util.Arrays;
 
 /**
@@ -149,9 +147,9 @@ public record PartCurve(double[] riseK, double baselineC, double noiseK, Double 
         return median(a, n);
     }
 
-    /** Median of the first n values (reorders them). */
     static double median(double[] a, int n) {
-        return OrderStatistics.median(a, n);
+        Arrays.sort(a, 0, n);
+        return (n & 1) == 1 ? a[n / 2] : 0.5 * (a[n / 2 - 1] + a[n / 2]);
     }
 
     static double meanFinite(double[] v, int from, int to) {

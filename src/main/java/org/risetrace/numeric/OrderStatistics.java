@@ -34,26 +34,6 @@ public final class OrderStatistics {
         return v[k];
     }
 
-    /** As {@link #select(float[], int, int)} for doubles. */
-    public static double select(double[] v, int n, int k) {
-        if (n == 0) return 0;
-        if (k < 0 || k >= n) throw new IllegalArgumentException("k = " + k + " outside 0.." + (n - 1));
-        int lo = 0, hi = n - 1;
-        while (lo < hi) {
-            double pivot = v[(lo + hi) >>> 1];
-            int i = lo, j = hi;
-            while (i <= j) {
-                while (v[i] < pivot) i++;
-                while (v[j] > pivot) j--;
-                if (i <= j) { double t = v[i]; v[i] = v[j]; v[j] = t; i++; j--; }
-            }
-            if (k <= j) hi = j;
-            else if (k >= i) lo = i;
-            else break;
-        }
-        return v[k];
-    }
-
     /**
      * The linearly interpolated q-quantile of the first n values (n >= 1), the "R-7" definition (Hyndman and Fan,
      * The American Statistician 50(4), 1996; the default of R and of spreadsheet PERCENTILE): with h = (n - 1) q,
@@ -77,17 +57,6 @@ public final class OrderStatistics {
         float upper = select(v, n, mid);
         if ((n & 1) == 1) return upper;
         float lower = v[0]; // the largest value before position mid
-        for (int i = 1; i < mid; i++) if (v[i] > lower) lower = v[i];
-        return 0.5 * (lower + upper);
-    }
-
-    /** As {@link #median(float[], int)} for doubles. */
-    public static double median(double[] v, int n) {
-        if (n < 1) throw new IllegalArgumentException("no values");
-        int mid = n / 2;
-        double upper = select(v, n, mid);
-        if ((n & 1) == 1) return upper;
-        double lower = v[0];
         for (int i = 1; i < mid; i++) if (v[i] > lower) lower = v[i];
         return 0.5 * (lower + upper);
     }

@@ -1,9 +1,8 @@
 package org.risetrace.registration;
 
-import org.risetrace.numeric.OrderStatistics;
-
 import org.risetrace.board.Board;
 import org.risetrace.frame.Frame;
+import org.risetrace.numeric.OrderStatistics;
 
 import java.util.ArrayList;
 import java.util.Arrays;

@@ -58,7 +58,7 @@ final class DirectRegistrar implements Registrar {
         long refinementsMade, refinementsReused;
     }
 
-    /** Whether a frame's refinements from the same start are reused; false only in tests, to compare. */
+    /** Whether a frame's refinements from the same start are reused (chain links take it over); false only in tests. */
     boolean reuseRefinements = true;
 
     /** {made, reused} homography refinements on the calling thread, this registrar's own (tests). */
@@ -376,6 +376,7 @@ final class DirectRegistrar implements Registrar {
             ws.chain = new DirectRegistrar(ReferenceModel.prepareHeated(ws.lastGood, b, config.withMethod("search"),
                     ws.linkScratch),
                     config.withMethod("auto"), false);
+            ws.chain.reuseRefinements = reuseRefinements;
         } catch (RuntimeException e) {
             return r;
         }

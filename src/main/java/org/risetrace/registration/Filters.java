@@ -172,8 +172,8 @@ final class Filters {
         }
     }
 
-    /** Box mean of radius r (borders clamped); tmp is not used. */
-    static void boxMean(float[] src, float[] dst, float[] tmp, int w, int h, int r) {
+    /** Box mean of radius r (borders clamped). */
+    static void boxMean(float[] src, float[] dst, int w, int h, int r) {
         boxMean2d(src, dst, null, null, w, h, r, 0, w, 0, h);
     }
 

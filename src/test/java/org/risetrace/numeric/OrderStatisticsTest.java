@@ -43,8 +43,8 @@ class OrderStatisticsTest {
 
     @Test
     void percentileEqualsTheSortedFormulaBitForBit() {
-        // what the samplers computed before selection replaced the sort: the same order statistics, the same
-        // float arithmetic, so the analysis' numbers do not move
+        // the R-7 definition (Hyndman and Fan 1996) evaluated on the values sorted by the JDK's Arrays.sort, in the
+        // float arithmetic the samplers used before selection replaced the sort: the analysis' numbers do not move
         Random rnd = new Random(3);
         for (int trial = 0; trial < 300; trial++) {
             int n = 1 + rnd.nextInt(3000);
@@ -61,6 +61,7 @@ class OrderStatisticsTest {
 
     @Test
     void selectPartitionsAroundTheKthSmallest() {
+        // the k-th smallest by definition: position k of the values sorted by the JDK's Arrays.sort
         Random rnd = new Random(5);
         for (int trial = 0; trial < 300; trial++) {
             int n = 1 + rnd.nextInt(500);

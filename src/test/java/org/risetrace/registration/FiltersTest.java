@@ -26,8 +26,8 @@ class FiltersTest {
         for (int[] size : new int[][]{{37, 23}, {9, 5}, {3, 12}, {64, 1}}) {
             int w = size[0], h = size[1], r = 4;
             float[] src = random(w * h, w * 31L + h);
-            float[] dst = new float[w * h], tmp = new float[w * h];
-            Filters.boxMean(src, dst, tmp, w, h, r);
+            float[] dst = new float[w * h];
+            Filters.boxMean(src, dst, w, h, r);
             for (int y = 0; y < h; y++)
                 for (int x = 0; x < w; x++) {
                     double s = 0;

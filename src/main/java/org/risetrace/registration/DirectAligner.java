@@ -32,10 +32,15 @@ final class DirectAligner {
      * Returns null when the frame falls away (too few template pixels land inside the frame).
      */
     Homography align(ReferenceModel ref, Pyramid frame, Homography startFull, int fromLevel) {
+        return align(ref, frame, startFull, fromLevel, 0);
+    }
+
+    /** As {@link #align(ReferenceModel, Pyramid, Homography, int)}, stopping after level toLevel. */
+    Homography align(ReferenceModel ref, Pyramid frame, Homography startFull, int fromLevel, int toLevel) {
         Homography h = startFull;
         converged = false;
         iterations = 0;
-        for (int l = fromLevel; l >= 0; l--) {
+        for (int l = fromLevel; l >= toLevel; l--) {
             ReferenceModel.Level lv = ref.level[l];
             if (lv.n < 16) continue;
             ensure(lv.n);

@@ -74,7 +74,8 @@ final class DirectRegistrar implements Registrar {
      * as a homography from level 1 down, graded once ({@link #straightToHomography}): the similarity's own
      * full-resolution alignment and grade were made only to be replaced, and a similarity that grades ok with its
      * check patches within {@link #TRY_HOMOGRAPHY_RMS_PX} is not refined at all, although it can be off by more
-     * than a pixel at the corners when the picture tilts.
+     * than a pixel at the corners when the picture tilts. A straight start that grades ok leaves the record as it
+     * is (no similarity to compare with): the run continues until a fallback's refinement is not kept.
      *
      * <p>Measured (one thread, registration alone, DEVELOPERS.md "Sixth pass"): the simulator's 300-frame hand-held
      * series kept 1 of 38 refinements made and skipped 230, 13-20 % less time, every status and corner unchanged;

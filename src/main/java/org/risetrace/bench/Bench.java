@@ -101,9 +101,43 @@ public final class Bench {
     public record Target(String what, double value, String bound, boolean met) {
     }
 
+    /**
+     * @param warmUpRounds           untimed rounds (each analyses every series once on all cores) before the series
+     *                               were measured
+     * @param lastWarmUpCompilerShare the compilers' time in the last of them as a share of its wall time (null: none)
+     */
     public record Result(int cores, String java, double loadAverageBefore, double loadAverageAfter, int width,
-                         int height, boolean quick, List<SeriesRow> series, BatchRow batch, List<ColdRow> cold,
-                         List<HeapRow> heap, List<Target> targets) {
+                         int height, boolean quick, int warmUpRounds, Double lastWarmUpCompilerShare,
+                         List<SeriesRow> series, BatchRow batch, List<ColdRow> cold, List<HeapRow> heap,
+                         List<Target> targets) {
+    }
+
+    private record WarmUp(int rounds, Double lastShare) {
+    }
+
+    /**
+     * Untimed analyses of every series (all cores) until the compilers spent at most {@link #SETTLED} of a round's
+     * wall time, at most {@link #MAX_WARM_UP_BATCHES} rounds. One pass over one series, as before the seventh pass,
+     * left the optimising compiler at work through the measurements: on the 640 x 512 TIFF series one thread
+     * analysed 40-70 frames/s in the first three passes of a process and 87-126 from the fifth on (profiled, the
+     * compiler threads still took a fifth of the samples in passes five to eight). An analyst's batch of hundreds of
+     * series runs in the settled state; the cold row measures the other end.
+     */
+    private static WarmUp warmUp(List<Path> series, Path out) {
+        int rounds = 0;
+        Double share = null;
+        while (rounds < MAX_WARM_UP_BATCHES) {
+            double compiled0 = compilerMillis();
+            long t0 = System.nanoTime();
+            for (Path dir : series) { // the bare decode warms too: a cold one would flatter the ratios
+                decodeAll(Series.open(dir));
+                analyse(dir, BoardFile.read(dir.resolve("board.json"), null), out, SeriesAnalyzer.defaultThreads());
+            }
+            rounds++;
+            share = (compilerMillis() - compiled0) / 1000.0 / seconds(t0);
+            if (!(share > SETTLED)) break; // NaN: the JVM does not time its compilers; one round then
+        }
+        return new WarmUp(rounds, share);
     }
 
     private Bench() {
@@ -130,9 +164,13 @@ public final class Bench {
                 Simulator.run(scenario(o, name), dir);
                 series.add(dir);
             }
+            int warmUps = 0;
+            Double warmUpShare = null;
             if (!o.quick()) { // the JIT compiles the hot code before anything is timed
-                log.accept("warming up (one pass over " + names[0] + ")");
-                measure(names[0], series.get(0), work.resolve("warm-up"));
+                log.accept("warming up (untimed decodes and analyses of the four series until the compilers settle)");
+                WarmUp w = warmUp(series, work.resolve("warm-up"));
+                warmUps = w.rounds();
+                warmUpShare = w.lastShare();
             }
             List<SeriesRow> rows = new ArrayList<>();
             for (int k = 0; k < names.length; k++) {
@@ -167,8 +205,8 @@ public final class Bench {
                     child(longSeries, work.resolve("heap-tight-long"), TIGHT_XMX, 1));
             double loadAfter = ManagementFactory.getOperatingSystemMXBean().getSystemLoadAverage();
             return new Result(Runtime.getRuntime().availableProcessors(), System.getProperty("java.version"),
-                    loadBefore, loadAfter, o.width(), o.height(), o.quick(), rows, batch, cold, heap,
-                    targets(rows, batch, cold, heap));
+                    loadBefore, loadAfter, o.width(), o.height(), o.quick(), warmUps, warmUpShare, rows, batch, cold,
+                    heap, targets(rows, batch, cold, heap));
         } finally {
             if (!o.keep()) deleteTree(work);
         }
@@ -187,13 +225,7 @@ public final class Bench {
         int n = s.size();
         // bare decode: the JDK's ImageIO, file to image, nothing else
         long t0 = System.nanoTime();
-        for (Path f : s.files()) {
-            try {
-                if (ImageIO.read(f.toFile()) == null) throw new IllegalStateException("ImageIO cannot read " + f);
-            } catch (IOException e) {
-                throw new UncheckedIOException(e);
-            }
-        }
+        decodeAll(s);
         double decode = n / seconds(t0);
         // our import: open the series, read (hash, decode, map to Celsius) every frame
         t0 = System.nanoTime();
@@ -224,6 +256,17 @@ public final class Bench {
         analyse(dir, board, out.resolve("all-cores"), SeriesAnalyzer.defaultThreads());
         double all = n / seconds(t0);
         return new SeriesRow(name, n, decode, imported, registered, one, all, peak, verdict);
+    }
+
+    /** Every frame of the series through the JDK's ImageIO, file to image, nothing else. */
+    private static void decodeAll(Series s) {
+        for (Path f : s.files()) {
+            try {
+                if (ImageIO.read(f.toFile()) == null) throw new IllegalStateException("ImageIO cannot read " + f);
+            } catch (IOException e) {
+                throw new UncheckedIOException(e);
+            }
+        }
     }
 
     private static String analyse(Path dir, Board board, Path out, int threads) {
@@ -464,6 +507,9 @@ public final class Bench {
                         + "load average %.2f before, %.2f after%s%n", r.width(), r.height(),
                 r.series().isEmpty() ? 0 : r.series().get(0).frames(), r.cores(), r.java(), r.loadAverageBefore(),
                 r.loadAverageAfter(), r.quick() ? " (--quick: sizes for a test, numbers mean nothing)" : ""));
+        if (r.warmUpRounds() > 0)
+            b.append(String.format(Locale.ROOT, "%n(%d untimed rounds over the four series before, compilers %.0f %% "
+                    + "of the last one's wall time)", r.warmUpRounds(), 100 * r.lastWarmUpCompilerShare()));
         b.append(String.format(Locale.ROOT, "%n%-15s %12s %16s %16s %16s %16s %10s  %s%n", "series",
                 "decode f/s", "import", "+registration", "analysis 1 thr", "analysis all", "peak MiB", "verdict"));
         for (SeriesRow s : r.series())

@@ -95,6 +95,7 @@ class BenchCommandTest {
         assertEquals(heap.get(4).get("ms_per_frame").asDouble() / heap.get(3).get("ms_per_frame").asDouble(),
                 r.get("targets").get(6).get("value").asDouble(), 1e-9);
         assertTrue(b.get("warm_up_batches").asInt() == 0, "--quick times the batch without warming up");
+        assertEquals(0, r.get("warm_up_rounds").asInt(), "--quick measures the series without warming up");
         try (Stream<Path> left = Files.list(dir)) {
             assertEquals(0, left.count(), "the generated series are removed");
         }
@@ -103,7 +104,7 @@ class BenchCommandTest {
     @Test
     void tableShowsEveryRowAndMarksMissedTargets() {
         Bench.SeriesRow s = new Bench.SeriesRow("hand-held-png", 300, 50, 150, 60, 30, 55, 80L << 20, "identified Q1");
-        Bench.Result r = new Bench.Result(2, "17", 1.0, 1.2, 640, 512, false, List.of(s),
+        Bench.Result r = new Bench.Result(2, "17", 1.0, 1.2, 640, 512, false, 3, 0.04, List.of(s),
                 new Bench.BatchRow(4, 1200, 20, 35, 36, 3, 0.04, 0.02), List.of(new Bench.ColdRow("x", 3.5, "t")),
                 List.of(new Bench.HeapRow(300, "256m", 0, 25, 180L << 20, 200L << 20, 90L << 20, 60L << 20, 1L << 20, "identified"),
                         new Bench.HeapRow(3000, "256m", 0, 24, 207L << 20, 210L << 20, 99L << 20, 62L << 20, 3L << 20, "identified"),
@@ -112,12 +113,13 @@ class BenchCommandTest {
                         new Bench.HeapRow(3000, "128m", 1, 50, 124L << 20, 140L << 20, 92L << 20, 52L << 20, 3L << 20, "identified")),
                 null);
         r = new Bench.Result(r.cores(), r.java(), r.loadAverageBefore(), r.loadAverageAfter(), r.width(), r.height(),
-                r.quick(), r.series(), r.batch(), r.cold(), r.heap(), Bench.targets(r.series(), r.batch(), r.cold(), r.heap()));
+                r.quick(), r.warmUpRounds(), r.lastWarmUpCompilerShare(), r.series(), r.batch(), r.cold(), r.heap(), Bench.targets(r.series(), r.batch(), r.cold(), r.heap()));
         String t = Bench.table(r);
         // 30 / 50 = 0.60 of the bare decode on one thread, 55 / 50 = 1.10 on all cores
         assertTrue(t.contains("30.0 (0.60x)"), t);
         assertTrue(t.contains("55.0 (1.10x)"), t);
         assertTrue(t.contains("two jobs 36.0 f/s = 1.80x"), t);
+        assertTrue(t.contains("(3 untimed rounds over the four series before, compilers 4 % of the last one's wall time)"), t);
         assertTrue(t.lines().anyMatch(l -> l.startsWith("  met ") && l.contains("two jobs")), t);
         // 24 ms per frame against 22: 1.09, within 1.2; 62 MiB live against the larger of 60 and 61 (the two runs
         // of 300 frames): 1.02

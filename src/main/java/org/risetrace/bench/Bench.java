@@ -102,8 +102,8 @@ public final class Bench {
     }
 
     /**
-     * @param warmUpRounds           untimed rounds (each analyses every series once on all cores) before the series
-     *                               were measured
+     * @param warmUpRounds           untimed rounds (each decodes and analyses every series once, all cores) before
+     *                               the series were measured
      * @param lastWarmUpCompilerShare the compilers' time in the last of them as a share of its wall time (null: none)
      */
     public record Result(int cores, String java, double loadAverageBefore, double loadAverageAfter, int width,
@@ -112,32 +112,44 @@ public final class Bench {
                          List<Target> targets) {
     }
 
+    /** Untimed rounds run, and the compilers' share of the last one's wall time (null: none ran). */
     private record WarmUp(int rounds, Double lastShare) {
     }
 
     /**
-     * Untimed analyses of every series (all cores) until the compilers spent at most {@link #SETTLED} of a round's
-     * wall time, at most {@link #MAX_WARM_UP_BATCHES} rounds. One pass over one series, as before the seventh pass,
-     * left the optimising compiler at work through the measurements: on the 640 x 512 TIFF series one thread
-     * analysed 40-70 frames/s in the first three passes of a process and 87-126 from the fifth on (profiled, the
-     * compiler threads still took a fifth of the samples in passes five to eight). An analyst's batch of hundreds of
-     * series runs in the settled state; the cold row measures the other end.
+     * Runs untimed rounds until the compilers spent at most {@link #SETTLED} of one's wall time, at most
+     * {@link #MAX_WARM_UP_BATCHES}; {@code round} runs one and returns its wall time in seconds.
      */
-    private static WarmUp warmUp(List<Path> series, Path out) {
+    private static WarmUp untilSettled(java.util.function.DoubleSupplier round) {
         int rounds = 0;
         Double share = null;
         while (rounds < MAX_WARM_UP_BATCHES) {
             double compiled0 = compilerMillis();
-            long t0 = System.nanoTime();
-            for (Path dir : series) { // the bare decode warms too: a cold one would flatter the ratios
-                decodeAll(Series.open(dir));
-                analyse(dir, BoardFile.read(dir.resolve("board.json"), null), out, SeriesAnalyzer.defaultThreads());
-            }
+            double s = round.getAsDouble();
             rounds++;
-            share = (compilerMillis() - compiled0) / 1000.0 / seconds(t0);
+            share = (compilerMillis() - compiled0) / 1000.0 / s;
             if (!(share > SETTLED)) break; // NaN: the JVM does not time its compilers; one round then
         }
         return new WarmUp(rounds, share);
+    }
+
+    /**
+     * Before the series are measured: rounds of the bare decode (warmed too: a cold one would flatter the ratios) and
+     * an all-cores analysis of every series, {@link #untilSettled until the compilers settle}. One pass over one
+     * series, as before the seventh pass, left the optimising compiler at work through the measurements: on the
+     * 640 x 512 TIFF series one thread analysed 41-75 frames/s in the first three passes of a process and 87-143
+     * from the fifth on (profiled, the compiler threads still took 16-22 % of the samples in passes five to eight).
+     * An analyst's batch of hundreds of series runs in the settled state; the cold row measures the other end.
+     */
+    private static WarmUp warmUp(List<Path> series, Path out) {
+        return untilSettled(() -> {
+            long t0 = System.nanoTime();
+            for (Path dir : series) {
+                decodeAll(Series.open(dir));
+                analyse(dir, BoardFile.read(dir.resolve("board.json"), null), out, SeriesAnalyzer.defaultThreads());
+            }
+            return seconds(t0);
+        });
     }
 
     private Bench() {
@@ -164,13 +176,10 @@ public final class Bench {
                 Simulator.run(scenario(o, name), dir);
                 series.add(dir);
             }
-            int warmUps = 0;
-            Double warmUpShare = null;
+            WarmUp warm = new WarmUp(0, null);
             if (!o.quick()) { // the JIT compiles the hot code before anything is timed
                 log.accept("warming up (untimed decodes and analyses of the four series until the compilers settle)");
-                WarmUp w = warmUp(series, work.resolve("warm-up"));
-                warmUps = w.rounds();
-                warmUpShare = w.lastShare();
+                warm = warmUp(series, work.resolve("warm-up"));
             }
             List<SeriesRow> rows = new ArrayList<>();
             for (int k = 0; k < names.length; k++) {
@@ -205,7 +214,7 @@ public final class Bench {
                     child(longSeries, work.resolve("heap-tight-long"), TIGHT_XMX, 1));
             double loadAfter = ManagementFactory.getOperatingSystemMXBean().getSystemLoadAverage();
             return new Result(Runtime.getRuntime().availableProcessors(), System.getProperty("java.version"),
-                    loadBefore, loadAfter, o.width(), o.height(), o.quick(), warmUps, warmUpShare, rows, batch, cold,
+                    loadBefore, loadAfter, o.width(), o.height(), o.quick(), warm.rounds(), warm.lastShare(), rows, batch, cold,
                     heap, targets(rows, batch, cold, heap));
         } finally {
             if (!o.keep()) deleteTree(work);
@@ -293,15 +302,9 @@ public final class Bench {
         BatchRunner.Options oneOne = new BatchRunner.Options(base.analysis(), null, 1, 1, true, base.shard());
         BatchRunner.Options oneAll = new BatchRunner.Options(base.analysis(), null, 1, null, true, base.shard());
         BatchRunner.Options two = new BatchRunner.Options(base.analysis(), null, 2, 1, true, base.shard());
-        int warmUps = 0;
-        Double lastCompileShare = null; // none, or NaN when the JVM does not time its compilers
-        while (warmUp && warmUps < MAX_WARM_UP_BATCHES) {
-            double compiled0 = compilerMillis();
-            double s = batchSeconds(root, work.resolve("batch-warm-up"), two);
-            warmUps++;
-            lastCompileShare = (compilerMillis() - compiled0) / 1000.0 / s;
-            if (!(lastCompileShare > SETTLED)) break; // NaN: the JVM does not time its compilers; one batch then
-        }
+        // none, or NaN as the share when the JVM does not time its compilers (one batch then)
+        WarmUp settled = warmUp ? untilSettled(() -> batchSeconds(root, work.resolve("batch-warm-up"), two))
+                : new WarmUp(0, null);
         double a = Double.POSITIVE_INFINITY, b = Double.POSITIVE_INFINITY, c = Double.POSITIVE_INFINITY;
         double compiled0 = compilerMillis();
         double timed = 0;
@@ -315,10 +318,11 @@ public final class Bench {
             timed += x + y + z;
         }
         double timedShare = (compilerMillis() - compiled0) / 1000.0 / timed;
-        return new BatchRow(count, frames, frames / a, frames / b, frames / c, warmUps, lastCompileShare, timedShare);
+        return new BatchRow(count, frames, frames / a, frames / b, frames / c, settled.rounds(), settled.lastShare(),
+                timedShare);
     }
 
-    /** Untimed batches stop once the compilers' time in one is at most this share of its wall time. */
+    /** Untimed batches and rounds stop once the compilers' time in one is at most this share of its wall time. */
     static final double SETTLED = 0.05;
     static final int MAX_WARM_UP_BATCHES = 8;
 

@@ -119,6 +119,7 @@ class BenchCommandTest {
         assertTrue(t.contains("30.0 (0.60x)"), t);
         assertTrue(t.contains("55.0 (1.10x)"), t);
         assertTrue(t.contains("two jobs 36.0 f/s = 1.80x"), t);
+        // the record's own 3 rounds and 0.04 share, as the table words them
         assertTrue(t.contains("(3 untimed rounds over the four series before, compilers 4 % of the last one's wall time)"), t);
         assertTrue(t.lines().anyMatch(l -> l.startsWith("  met ") && l.contains("two jobs")), t);
         // 24 ms per frame against 22: 1.09, within 1.2; 62 MiB live against the larger of 60 and 61 (the two runs

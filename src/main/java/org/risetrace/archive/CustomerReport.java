@@ -1,5 +1,7 @@
 package org.risetrace.archive;
 
+import static org.risetrace.report.Html.esc;
+
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import org.risetrace.report.ReportHtml;
@@ -196,22 +198,6 @@ public final class CustomerReport {
     private static void fact(StringBuilder h, String term, String value) {
         if (value == null || value.isBlank()) return;
         h.append("<div><dt>").append(esc(term)).append("</dt><dd>").append(esc(value)).append("</dd></div>\n");
-    }
-
-    static String esc(String s) {
-        if (s == null) return "";
-        StringBuilder sb = new StringBuilder(s.length());
-        for (char c : s.toCharArray()) {
-            switch (c) {
-                case '<' -> sb.append("&lt;");
-                case '>' -> sb.append("&gt;");
-                case '&' -> sb.append("&amp;");
-                case '"' -> sb.append("&quot;");
-                case '\'' -> sb.append("&#39;");
-                default -> sb.append(c);
-            }
-        }
-        return sb.toString();
     }
 
     static String css(Paper paper) {

@@ -1,5 +1,7 @@
 package org.risetrace.batch;
 
+import static org.risetrace.report.Html.esc;
+
 import java.nio.charset.StandardCharsets;
 import java.net.URLEncoder;
 import java.util.List;
@@ -97,30 +99,6 @@ public final class IndexHtml {
         for (String seg : relativePath.split("/", -1)) {
             if (sb.length() > 0) sb.append('/');
             sb.append(URLEncoder.encode(seg, StandardCharsets.UTF_8).replace("+", "%20"));
-        }
-        return sb.toString();
-    }
-
-    /**
-     * HTML-encodes text for element content and quoted attributes: &amp; &lt; &gt; &quot; &#39; (OWASP Cross Site
-     * Scripting Prevention Cheat Sheet, output encoding for HTML contexts). Null becomes "".
-     */
-    static String esc(String s) {
-        if (s == null) return "";
-        StringBuilder sb = new StringBuilder(s.length() + 16);
-        for (int i = 0; i < s.length(); i++) {
-            char c = s.charAt(i);
-            switch (c) {
-                case '&' -> sb.append("&amp;");
-                case '<' -> sb.append("&lt;");
-                case '>' -> sb.append("&gt;");
-                case '"' -> sb.append("&quot;");
-                case '\'' -> sb.append("&#39;");
-                default -> {
-                    if (c < 0x20 && c != '\t' && c != '\n' && c != '\r') continue;
-                    sb.append(c);
-                }
-            }
         }
         return sb.toString();
     }

@@ -4,15 +4,15 @@ import java.math.BigDecimal;
 import java.math.MathContext;
 import java.math.RoundingMode;
 
-/** Text helpers for the HTML report: output encoding and number formatting. */
-final class Html {
+/** Text helpers for the HTML outputs (report, batch index, customer report): output encoding and number formatting. */
+public final class Html {
     private Html() { }
 
     /**
      * HTML-encodes text for element content and quoted attribute values: &amp; &lt; &gt; &quot; and &#39; (OWASP
      * Cross Site Scripting Prevention Cheat Sheet, output encoding rule for HTML contexts). Null becomes "".
      */
-    static String esc(String s) {
+    public static String esc(String s) {
         if (s == null) return "";
         StringBuilder sb = new StringBuilder(s.length() + 16);
         for (int i = 0; i < s.length(); i++) {

@@ -51,7 +51,7 @@ class CustomerReportTest {
             CustomerReport.Made m = CustomerReport.make(a, "C-5", SHOP, CustomerReport.Paper.A4);
             String h = m.html();
             for (String s : List.of("Bench Nine Repairs", "12 Mill Lane", "C-5", "SN5", "trips the supply", "tess",
-                    "ticket &lt;5&gt; &amp; co", CustomerReport.esc(ReportHtml.SAFETY_TEXT), "size: A4"))
+                    "ticket &lt;5&gt; &amp; co", org.risetrace.report.Html.esc(ReportHtml.SAFETY_TEXT), "size: A4"))
                 assertTrue(h.contains(s), s);
             assertFalse(h.contains("<script>"), "the shop's text is escaped");
             assertFalse(h.contains("<script"), "no script at all");

@@ -73,10 +73,8 @@ public record PartCurve(double[] riseK, double baselineC, double noiseK, Double 
             }
         }
 
-        int from = 0;
-        while (from < n && tS[from] <= tStartS) from++;
-        int to = from;
-        while (to < n && (tS[to] <= tStartS + windowS || to - from < o.minRateFrames())) to++;
+        int[] span = rateSpan(tS, tStartS, windowS, o.minRateFrames());
+        int from = span[0], to = span[1];
         LineFit rate = LineFit.fit(tS, rise, weight, from, to, noise);
         if (rate != null) rate = rate.widenedForSerialCorrelation(rate.residualLag1(tS, rise, weight, from, to));
         if (rate != null && positionErrorK > 0 && to - 1 > from) {
@@ -95,6 +93,28 @@ public record PartCurve(double[] riseK, double baselineC, double noiseK, Double 
         RiseModelFit fit = onset == null || !fitRise ? null : RiseModelFit.fit(tS, rise, tStartS);
 
         return new PartCurve(rise, base, noise, onset, rate, fit, end);
+    }
+
+    /**
+     * The frames a rate is fitted over: {from, to} (to exclusive), the frames after the injection start up to
+     * tStartS + windowS, widened to at least minFrames of them where the series holds them. A window of a few
+     * seconds on a series of one frame a second is widened past its nominal length; {@link #rateSpanS} says how far.
+     */
+    static int[] rateSpan(double[] tS, double tStartS, double windowS, int minFrames) {
+        int n = tS.length, from = 0;
+        while (from < n && tS[from] <= tStartS) from++;
+        int to = from;
+        while (to < n && (tS[to] <= tStartS + windowS || to - from < minFrames)) to++;
+        return new int[]{from, to};
+    }
+
+    /**
+     * The window a rate was actually fitted over, in seconds after the injection start: to the last frame of {@link
+     * #rateSpan} (NaN when it holds no frame).
+     */
+    static double rateSpanS(double[] tS, double tStartS, double windowS, int minFrames) {
+        int[] span = rateSpan(tS, tStartS, windowS, minFrames);
+        return span[1] > span[0] ? tS[span[1] - 1] - tStartS : Double.NaN;
     }
 
     /** The same curve with another rise model (the rise and the onset do not depend on the rate window). */

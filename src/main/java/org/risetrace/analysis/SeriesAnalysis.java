@@ -130,11 +130,8 @@ public final class SeriesAnalysis {
      * division by the number of frames.
      */
     static double windowEndsSigma(double[] t, double[] sigmaBoardPx, double tStartS, double windowS, int minFrames) {
-        int n = t.length, from = 0;
-        while (from < n && t[from] <= tStartS) from++;
-        int to = from;
-        while (to < n && (t[to] <= tStartS + windowS || to - from < minFrames)) to++;
-        int m = to - from;
+        int[] span = PartCurve.rateSpan(t, tStartS, windowS, minFrames);
+        int from = span[0], to = span[1], m = to - from;
         if (m < 2) return 0;
         int third = Math.max(1, m / 3);
         double early = 0, late = 0;
@@ -203,10 +200,8 @@ public final class SeriesAnalysis {
      * NaN when no model fits (the caller then keeps the straight line's error).
      */
     double modelResidualSlopeSe(double[] t, double[] d, double[] w, double windowS, double noiseK, double positionErrK) {
-        int n = t.length, from = 0;
-        while (from < n && t[from] <= plan.tStartS()) from++;
-        int to = from;
-        while (to < n && (t[to] <= plan.tStartS() + windowS || to - from < options.minRateFrames())) to++;
+        int[] span = PartCurve.rateSpan(t, plan.tStartS(), windowS, options.minRateFrames());
+        int from = span[0], to = span[1];
         if (to - from < 6) return Double.NaN;
         double[] tw = java.util.Arrays.copyOfRange(t, 0, to), dw = java.util.Arrays.copyOfRange(d, 0, to);
         RiseModelFit model = RiseModelFit.fit(tw, dw, plan.tStartS());
@@ -319,7 +314,9 @@ public final class SeriesAnalysis {
                 curves[p] = PartCurve.measure(t, ys[p], amb, ws[p], baselineUsed, plan.tStartS(), windowS,
                         positionErrorK[p] * positionSigma, options, false).withFit(curves[p].fit());
         }
-        this.windowUsedS = windowS;
+        // the window the rates were fitted over, as widened to minRateFrames: a 3.5 s window on a series of two
+        // frames a second spans 12 frames, 5.5-6 s, and the report must say so (the rate is the mean over it)
+        this.windowUsedS = PartCurve.rateSpanS(t, plan.tStartS(), windowS, options.minRateFrames());
         this.positionSigmaBoardPx = positionSigma;
 
         // rise map and hot spots, on object temperatures: each part's footprint scaled by its correction's gain,

@@ -79,6 +79,16 @@ public final class ReportHtml {
     }
 
     /** The verdict in one line of plain words, as the report's headline. */
+    /**
+     * " over the first N s": the window the rates were fitted over (after the injection start, as widened to the
+     * fewest frames a rate needs), so a rate is read as the mean slope over it; "" when not recorded.
+     */
+    static String rateWindowWords(AnalysisResult r) {
+        Object w = r.parameters() == null ? null : r.parameters().get("rate_window_used_s");
+        return w instanceof Number n && Double.isFinite(n.doubleValue()) && n.doubleValue() > 0
+                ? " over the first " + sig(n.doubleValue(), 2) + " s" : "";
+    }
+
     public static String headline(Analysis a) {
         AnalysisResult r = a.result();
         Verdict v = r.verdict();
@@ -97,7 +107,7 @@ public final class ReportHtml {
             return v.ref() + " rose most" + rise + ahead;
         }
         StringBuilder sb = new StringBuilder(v.ref()).append(" heats fastest: ").append(sig(v.rateKPerS(), 2))
-                .append(" K/s");
+                .append(" K/s").append(rateWindowWords(r));
         if (v.runnerUpRef() != null) {
             sb.append(finite(v.separationSigma()) ? ", " + fixed(v.separationSigma(), 1) + " sigma ahead of "
                     : ", ahead of ").append(v.runnerUpRef());
@@ -251,7 +261,7 @@ public final class ReportHtml {
             h.append("<p class=\"blank\">No parts are marked on this board.</p>\n");
         } else {
             h.append("<table class=\"ranking\">\n<thead><tr><th>#</th><th>part</th>");
-            if (!comparison) h.append("<th>initial rate (K/s)</th>");
+            if (!comparison) h.append("<th>initial rate (K/s)").append(esc(rateWindowWords(r))).append("</th>");
             h.append("<th>rise (K)</th>");
             if (!comparison) h.append("<th>onset (s)</th><th>\u03c4 (s)</th><th>\u0394T\u221e (K)</th><th>fit RMS (K)</th>");
             h.append("<th>noise (K)</th><th>in frame</th><th>emissivity</th><th>warnings</th></tr></thead>\n<tbody>\n");

@@ -64,4 +64,22 @@ class PartCurveTest {
         double[] base = java.util.Arrays.copyOf(c.riseK(), 20);
         assertEquals(new org.apache.commons.math3.stat.descriptive.moment.StandardDeviation().evaluate(base), c.noiseK(), 1e-12);
     }
+
+    @Test
+    void theRateWindowRecordedIsTheOneFitted() {
+        // frames every 0.5 s from 0 to 19.5 s, injection at 5 s: a 3.5 s window holds the 7 frames at 5.5-8.5 s and
+        // is widened to min_rate_frames (12): 5.5-11 s, recorded as 6 s after the start (not 3.5)
+        double[] t = new double[40];
+        for (int i = 0; i < t.length; i++) t[i] = 0.5 * i;
+        int[] span = PartCurve.rateSpan(t, 5.0, 3.5, 12);
+        assertEquals(11, span[0]);
+        assertEquals(23, span[1]);
+        assertEquals(6.0, PartCurve.rateSpanS(t, 5.0, 3.5, 12), 1e-12);
+        // a window holding more than the fewest frames ends at its last frame within it
+        assertEquals(10.0, PartCurve.rateSpanS(t, 5.0, 10.2, 12), 1e-12);
+        // a series shorter than the fewest frames: all frames after the start
+        assertEquals(14.5, PartCurve.rateSpanS(t, 5.0, 3.5, 100), 1e-12);
+        // no frame after the start
+        assertEquals(Double.NaN, PartCurve.rateSpanS(t, 19.5, 3.5, 12));
+    }
 }

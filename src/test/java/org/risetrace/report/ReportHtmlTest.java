@@ -263,6 +263,15 @@ class ReportHtmlTest {
         assertEquals("Inconclusive: Q3 and Q5 are level within 1.2 sigma", ReportHtml.headline(level));
         assertEquals("Q3 heats fastest: 0.20 K/s, 7.9 sigma ahead of Q5", ReportHtml.headline(a));
         assertEquals(r.verdict().ref(), "Q3");
+        // with the window the rates were fitted over recorded, the headline says the rate is over that window
+        java.util.Map<String, Object> params = new java.util.LinkedHashMap<>(r.parameters());
+        params.put("rate_window_used_s", 6.0);
+        Analysis windowed = new Analysis(new AnalysisResult(r.schema(), r.tool(), r.version(), r.createdUtc(),
+                r.series(), r.board(), r.profile(), params, r.injection(), r.verdict(), r.parts(), r.hotspots(),
+                r.frames()), a.board(), a.curves(), a.riseMap(), a.onsetMap(), a.lastFrame());
+        assertEquals("Q3 heats fastest: 0.20 K/s over the first 6 s, 7.9 sigma ahead of Q5",
+                ReportHtml.headline(windowed));
+        assertTrue(ReportHtml.toHtml(windowed, null).contains("initial rate (K/s) over the first 6 s"));
     }
 
     private static Analysis withVerdict(Analysis a, Verdict v) {

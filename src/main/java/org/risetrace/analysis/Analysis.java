@@ -24,6 +24,11 @@ public record Analysis(AnalysisResult result, Board board, List<RiseCurve> curve
         return new Analysis(result.withFrames(records), board, curves, riseMap, onsetMap, lastFrame);
     }
 
+    /** This analysis with another result (the same maps and curves). */
+    public Analysis withResult(AnalysisResult other) {
+        return new Analysis(other, board, curves, riseMap, onsetMap, lastFrame);
+    }
+
     /** This analysis with its series folder's bench readings in the result (null: none). */
     public Analysis withBenchReadings(org.risetrace.planning.BenchReadings readings) {
         return new Analysis(result.withBenchReadings(readings), board, curves, riseMap, onsetMap, lastFrame);

@@ -27,9 +27,11 @@ import java.util.Map;
  * @param hotspots    local maxima of the rise map, hottest first
  * @param frames      every source frame with its hash and registration
  * @param benchReadings the series folder's bench meter readings, assessed (null: the folder has none)
+ * @param seriesWarnings what reading the series assumed or left out (an assumed profile or frame interval, skipped
+ *                      files): the numbers rest on it, so the evidence carries it (empty: nothing; absent in JSON)
  */
 @JsonPropertyOrder({"schema", "tool", "version", "created_utc", "series", "board", "profile", "parameters",
-        "injection", "verdict", "parts", "hotspots", "frames", "bench_readings"})
+        "injection", "verdict", "parts", "hotspots", "frames", "bench_readings", "series_warnings"})
 public record AnalysisResult(
         @JsonProperty("schema") String schema,
         @JsonProperty("tool") String tool,
@@ -44,7 +46,8 @@ public record AnalysisResult(
         @JsonProperty("parts") List<PartResult> parts,
         @JsonProperty("hotspots") List<Hotspot> hotspots,
         @JsonProperty("frames") List<FrameRecord> frames,
-        @JsonInclude(JsonInclude.Include.NON_NULL) @JsonProperty("bench_readings") BenchReadings benchReadings) {
+        @JsonInclude(JsonInclude.Include.NON_NULL) @JsonProperty("bench_readings") BenchReadings benchReadings,
+        @JsonInclude(JsonInclude.Include.NON_EMPTY) @JsonProperty("series_warnings") List<String> seriesWarnings) {
 
     public static final String SCHEMA = "risetrace-analysis/1";
 
@@ -53,18 +56,36 @@ public record AnalysisResult(
                           String profile, Map<String, Object> parameters, Sidecar.Injection injection, Verdict verdict,
                           List<PartResult> parts, List<Hotspot> hotspots, List<FrameRecord> frames) {
         this(schema, tool, version, createdUtc, series, board, profile, parameters, injection, verdict, parts,
-                hotspots, frames, null);
+                hotspots, frames, null, List.of());
+    }
+
+    public AnalysisResult {
+        seriesWarnings = seriesWarnings == null ? List.of() : List.copyOf(seriesWarnings);
     }
 
     /** This result with other frame records (the same frames, with more said about them). */
     public AnalysisResult withFrames(List<FrameRecord> records) {
         return new AnalysisResult(schema, tool, version, createdUtc, series, board, profile, parameters, injection,
-                verdict, parts, hotspots, records, benchReadings);
+                verdict, parts, hotspots, records, benchReadings, seriesWarnings);
     }
 
     /** This result with the bench readings of its series folder. */
     public AnalysisResult withBenchReadings(BenchReadings readings) {
         return new AnalysisResult(schema, tool, version, createdUtc, series, board, profile, parameters, injection,
-                verdict, parts, hotspots, frames, readings);
+                verdict, parts, hotspots, frames, readings, seriesWarnings);
+    }
+
+    /** This result with what reading its series assumed or left out. */
+    public AnalysisResult withSeriesWarnings(List<String> warnings) {
+        return new AnalysisResult(schema, tool, version, createdUtc, series, board, profile, parameters, injection,
+                verdict, parts, hotspots, frames, benchReadings, warnings);
+    }
+
+    /** This result with one more parameter recorded (after those it has). */
+    public AnalysisResult withParameter(String name, Object value) {
+        Map<String, Object> more = new java.util.LinkedHashMap<>(parameters == null ? Map.of() : parameters);
+        more.put(name, value);
+        return new AnalysisResult(schema, tool, version, createdUtc, series, board, profile, more, injection,
+                verdict, parts, hotspots, frames, benchReadings, seriesWarnings);
     }
 }

@@ -92,7 +92,10 @@ public final class SeriesAnalyzer {
         Analysis a = Analyzer.run(source, board, () -> mapper(registrar, rectifier),
                 () -> AmbientSampler.forBoard(board, options.ambientGapMm(), options.ambientBandMm()), sa, alsoInOrder,
                 threads, progress).withBenchReadings(readings);
-        return a.withFrames(withInstants(a.result().frames(), series));
+        a = a.withFrames(withInstants(a.result().frames(), series));
+        // the worker threads are recorded: each thread's registrar starts a frame from its own last one, so another
+        // count registers from other starts and the numbers differ within their errors (the same count repeats them)
+        return a.withResult(a.result().withParameter("worker_threads", threads).withSeriesWarnings(series.warnings()));
     }
 
     /** Each frame record with its capture instant from the image metadata, matched by file name. */

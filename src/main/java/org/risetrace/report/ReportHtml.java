@@ -46,7 +46,7 @@ public final class ReportHtml {
     static final int CURVES_SHOWN = 5;
 
     public static final String SAFETY_TEXT =
-            "Disconnect batteries and mains from the board before injecting. "
+            "Disconnect batteries and mains from the board, and discharge its bulk capacitors, before injecting. "
             + "Set the bench supply's current limit before connecting it, and start low. "
             + "Never inject between a core rail and ground above that rail's nominal voltage. "
             + "Parts that heat can burn: do not touch the board during injection or while it cools. "
@@ -190,6 +190,12 @@ public final class ReportHtml {
         boolean verdictSaysIt = v != null && v.reason() != null && v.reason().contains("no marked part");
         if (unmarked != null && !verdictSaysIt)
             h.append("<p class=\"unmarked\">").append(esc(unmarkedSentence(unmarked))).append("</p>\n");
+        if (r.seriesWarnings() != null && !r.seriesWarnings().isEmpty()) {
+            // an assumed profile or frame interval changes every number above: said beside the answer
+            h.append("<div class=\"unmarked assumed\"><p>Reading the series, risetrace assumed or left out:</p><ul>");
+            for (String w : r.seriesWarnings()) h.append("<li>").append(esc(w)).append("</li>");
+            h.append("</ul></div>\n");
+        }
         h.append("</section>\n");
 
         // safety

@@ -25,7 +25,7 @@ class ReportPlanningSectionsTest {
         AnalysisResult r = a.result();
         AnalysisResult changed = new AnalysisResult(r.schema(), r.tool(), r.version(), r.createdUtc(), r.series(),
                 r.board(), r.profile(), r.parameters(), injection, r.verdict(), r.parts(), r.hotspots(), r.frames(),
-                readings);
+                readings, r.seriesWarnings());
         return new Analysis(changed, a.board(), a.curves(), a.riseMap(), a.onsetMap(), a.lastFrame());
     }
 

@@ -349,10 +349,13 @@ public final class SeriesAnalysis {
         }
         Integer[] order = new Integer[np];
         for (int p = 0; p < np; p++) order[p] = p;
+        // by rate; parts without one (too few frames after the start) after those with one, by their end rise
+        // (before, in the board file's order: a part risen 0.06 K ranked above one risen 4.4 K)
         Arrays.sort(order, Comparator.comparingDouble((Integer p) -> {
             Double r = candidates.get(p).rateKPerS();
             return r == null || r.isNaN() ? Double.POSITIVE_INFINITY : -r;
-        }));
+        }).thenComparingDouble(p -> Double.isFinite(curves[p].endRiseK()) ? -curves[p].endRiseK()
+                : Double.POSITIVE_INFINITY));
         List<Verdicts.Candidate> ranked = new ArrayList<>();
         for (Integer p : order) ranked.add(candidates.get(p));
         Verdicts.PairedLead paired = np >= 2 ? pairedLead(t, curves, candidates, ws, positionErrorK, mappingSigmaBoardPx,

@@ -98,6 +98,30 @@ public final class SeriesAnalyzer {
         return a.withResult(a.result().withParameter("worker_threads", threads).withSeriesWarnings(series.warnings()));
     }
 
+    /**
+     * A series as its frames allow: exactly two frames are a before/after pair, compared part by part on their
+     * rises as {@code compare} does (a rate needs at least three frames, so analysed over time such a pair could
+     * only ever be inconclusive); any other series is analysed over time. The pair's result carries the frames'
+     * capture instants and what reading the series assumed, as a series' does.
+     */
+    public static Analysis analyzeOrCompare(Series series, Board board, Path boardFile, String seriesLabel,
+                                            AnalysisOptions options, int threads, Analyzer.Progress progress) {
+        if (series.size() != 2)
+            return analyze(series, board, boardFile, seriesLabel, options, emissivity(series.profile()), threads,
+                    progress);
+        Analysis a = compare(series.read(0), series.read(1), board, boardFile, options, series.sidecar(),
+                series.profile());
+        progress.update(2, 2);
+        a = a.withFrames(withInstants(a.result().frames(), series));
+        return a.withResult(a.result().withSeriesWarnings(series.warnings()));
+    }
+
+    /** True for the result of a before/after comparison ({@link #compare}). */
+    public static boolean isComparison(Analysis a) {
+        Object mode = a.result().parameters() == null ? null : a.result().parameters().get("mode");
+        return "compare".equals(mode);
+    }
+
     /** Each frame record with its capture instant from the image metadata, matched by file name. */
     static List<FrameRecord> withInstants(List<FrameRecord> records, Series series) {
         java.util.Map<String, java.time.Instant> at = new java.util.HashMap<>();

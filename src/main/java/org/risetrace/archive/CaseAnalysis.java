@@ -65,12 +65,11 @@ public final class CaseAnalysis {
                 headline = LockInReport.headline(li.result());
                 modeName = "lock-in";
             } else {
-                Analysis an = SeriesAnalyzer.analyze(s, b, boardFile, label, options, SeriesAnalyzer.emissivity(s.profile()),
-                        threads, progress);
+                Analysis an = SeriesAnalyzer.analyzeOrCompare(s, b, boardFile, label, options, threads, progress);
                 Reports.writeAll(an, out, notes, true);
                 v = an.result().verdict();
                 headline = ReportHtml.headline(an);
-                modeName = "steady";
+                modeName = SeriesAnalyzer.isComparison(an) ? "compare" : "steady";
             }
             ObjectNode params = JSON.valueToTree(options.asMap());
             params.put("threads", threads);

@@ -253,12 +253,12 @@ public final class BatchRunner {
                 frameRecords = li.steady().result().frames();
                 mode = "lock-in";
             } else {
-                Analysis a = SeriesAnalyzer.analyze(s, b, task.boardFile(), label, options.analysis(),
-                        SeriesAnalyzer.emissivity(s.profile()), options.threads(), Analyzer.Progress.NONE);
+                Analysis a = SeriesAnalyzer.analyzeOrCompare(s, b, task.boardFile(), label, options.analysis(),
+                        options.threads(), Analyzer.Progress.NONE);
                 Reports.writeAll(a, stage, notes);
                 verdict = a.result().verdict();
                 frameRecords = a.result().frames();
-                mode = "steady";
+                mode = SeriesAnalyzer.isComparison(a) ? "compare" : "steady";
             }
             for (String name : SERIES_OUTPUTS) AtomicFiles.move(stage.resolve(name), dir.resolve(name));
         } finally {

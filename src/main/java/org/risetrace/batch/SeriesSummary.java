@@ -11,7 +11,7 @@ import java.util.List;
  * @param series          folder relative to the batch root, '/'-separated
  * @param frames          frame files in the series (null when it could not be opened)
  * @param durationS       last frame's time minus the first's
- * @param mode            "steady" or "lock-in" (null when it failed before the analysis)
+ * @param mode            "steady", "lock-in" or "compare" (two frames; null when it failed before the analysis)
  * @param status          the verdict's status word, or "failed"
  * @param designator      the leading part's reference designator
  * @param rateKPerS       the verdict's rate (steady: the leader's initial rise rate; lock-in: as in analysis.json)

@@ -150,8 +150,11 @@ public final class AnalyzeCommand implements Callable<Integer> {
                             + "', which is not in the series; its corners are not used");
         if (mode == Mode.lock_in || (mode == Mode.auto && LockInAnalyzer.periodic(s))) return lockIn(s, b, boardFile, options, err);
         long opened = System.nanoTime();
-        Analysis a = SeriesAnalyzer.analyze(s, b, boardFile, series.toString(), options,
-                SeriesAnalyzer.emissivity(s.profile()), tunables.threads(), progress(err));
+        Analysis a = SeriesAnalyzer.analyzeOrCompare(s, b, boardFile, series.toString(), options,
+                tunables.threads(), progress(err));
+        boolean pair = SeriesAnalyzer.isComparison(a);
+        if (pair) err.println("risetrace: two frames: compared as before and after (" + s.fileName(0) + " -> "
+                + s.fileName(1) + "), rises only; a rate needs at least three frames");
         long analysed = System.nanoTime();
         warnLeftOut(a, err);
         writeOutputs(a, dir, s.sidecar() == null ? null : s.sidecar().notes(), output.force);
@@ -166,7 +169,7 @@ public final class AnalyzeCommand implements Callable<Integer> {
             o.flush();
         } else {
             spec.commandLine().getOut().println(line(series.getFileName().toString(), a.result().verdict()));
-            spec.commandLine().getOut().println("mode: steady");
+            spec.commandLine().getOut().println(pair ? "mode: compare" : "mode: steady");
             spec.commandLine().getOut().println("report: " + dir.resolve("report.html"));
         }
         err.flush();

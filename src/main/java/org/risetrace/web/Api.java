@@ -446,8 +446,8 @@ final class Api {
                 LockInReport.writeAll(li, out, notes, true);
                 return new Finished(root, rel, li.steady(), LockInReport.toJson(li), out);
             }
-            Analysis a = SeriesAnalyzer.analyze(s, b, boardFile, label, options,
-                    SeriesAnalyzer.emissivity(s.profile()), SeriesAnalyzer.defaultThreads(), progress);
+            Analysis a = SeriesAnalyzer.analyzeOrCompare(s, b, boardFile, label, options,
+                    SeriesAnalyzer.defaultThreads(), progress);
             Reports.writeAll(a, out, notes, true);
             return new Finished(root, rel, a, AnalysisJson.toJson(a.result()), out);
         }, this::errorLine);

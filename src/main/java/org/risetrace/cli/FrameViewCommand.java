@@ -29,6 +29,9 @@ public final class FrameViewCommand implements Callable<Integer> {
     @Option(names = "--out", required = true, paramLabel = "<file.png>", description = "the PNG to write")
     Path out;
 
+    @Option(names = "--force", description = "write over an existing file of that name (never over the frame itself)")
+    boolean force;
+
     @Option(names = "--grid", paramLabel = "N", description = "a grid line and coordinate every N frame pixels (default: ${DEFAULT-VALUE})")
     int gridPx = 10;
 
@@ -44,6 +47,7 @@ public final class FrameViewCommand implements Callable<Integer> {
         if (scale != null && (scale < 1 || scale > 15 || scale % 2 == 0))
             throw new CommandLine.ParameterException(spec.commandLine(), "--scale must be odd, 1 to 15");
         if (!Files.isRegularFile(frame)) throw new InputRejected(frame, "frame file not found");
+        checkTarget(frame, out, force);
         Path sidecar = frame.toAbsolutePath().getParent().resolve("series.json");
         Series s = Series.open(List.of(frame), Files.isRegularFile(sidecar) ? sidecar : null, profile);
         Frame f = s.read(0);
@@ -61,5 +65,22 @@ public final class FrameViewCommand implements Callable<Integer> {
                 + "grid every %d px, %.2f to %.2f \u00b0C", out, f.width(), f.height(), sc, gridPx, range[0], range[1]));
         spec.commandLine().getOut().flush();
         return Main.EXIT_OK;
+    }
+
+    /**
+     * The PNG may not replace what the user has: a folder, the frame it is drawn from (a radiometric original would
+     * be lost to a false-colour picture), or without --force any other existing file (common practice: a tool
+     * never writes over a file it was not asked to replace).
+     */
+    static void checkTarget(Path frame, Path out, boolean force) {
+        if (Files.isDirectory(out)) throw new InputRejected(out, "is a folder", "name a .png file to write");
+        if (!Files.exists(out)) return;
+        try {
+            if (Files.isSameFile(frame, out))
+                throw new InputRejected(out, "is the frame being drawn", "name another file; the frame stays as it is");
+        } catch (java.io.IOException e) {
+            throw new InputRejected(out, "cannot be checked: " + e.getMessage());
+        }
+        if (!force) throw new InputRejected(out, "exists already", "name a new file, or pass --force to replace it");
     }
 }

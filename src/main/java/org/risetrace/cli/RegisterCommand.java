@@ -13,6 +13,7 @@ import picocli.CommandLine.Command;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
 
+import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.Locale;
 import java.util.concurrent.Callable;
@@ -29,6 +30,9 @@ public final class RegisterCommand implements Callable<Integer> {
 
     @Option(names = "--out", paramLabel = "<dir>", description = "where registration.json goes (default: the folder)")
     Path out;
+
+    @Option(names = "--force", description = "replace an earlier registration.json (and rectified/ frames) in <out>")
+    boolean force;
 
     @Option(names = "--write-rectified", description = "also write each usable frame in board space as a 16-bit PNG "
             + "in centikelvin under <out>/rectified/")
@@ -61,6 +65,13 @@ public final class RegisterCommand implements Callable<Integer> {
         if (writeRectified && pxPerMm > 0) org.risetrace.analysis.MemoryBudget.boardRasterPixels(board, pxPerMm, bf);
         Frame reference = series.read(refIndex);
         Path dir = out != null ? out : folder;
+        // an earlier registration.json (perhaps edited, perhaps the only record of a run) is not replaced unasked
+        Path earlier = dir.resolve(SeriesRegistration.FILE_NAME);
+        if (Files.exists(earlier) && !force)
+            throw new InputRejected(earlier, "exists already", "pass --force to replace it, or --out another folder");
+        if (writeRectified && !force && Files.isDirectory(dir.resolve("rectified")))
+            throw new InputRejected(dir.resolve("rectified"), "exists already",
+                    "pass --force to replace its frames, or --out another folder");
         RegistrationConfig config;
         try {
             config = RegistrationConfig.defaults().withMethod(method);

@@ -10,9 +10,11 @@ import org.risetrace.report.FrameView;
 import javax.imageio.ImageIO;
 import java.awt.image.BufferedImage;
 import java.io.IOException;
+import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.Arrays;
 
+import static org.junit.jupiter.api.Assertions.assertArrayEquals;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertFalse;
 import static org.junit.jupiter.api.Assertions.assertNotEquals;
@@ -95,5 +97,33 @@ class FrameViewTest {
         InspectCommandTest.Result even = InspectCommandTest.run("frame-view", frame(dir).toString(), "--out",
                 dir.resolve("x.png").toString(), "--scale", "4");
         assertEquals(Main.EXIT_USAGE, even.code(), even.err());
+    }
+
+    @Test
+    void neverWritesOverTheFrameOrAnExistingFileUnasked(@TempDir Path dir) throws Exception {
+        // common practice: a tool never replaces a file it was not asked to replace; the radiometric frame itself
+        // would be lost to a false-colour picture
+        Path f = frame(dir);
+        byte[] original = Files.readAllBytes(f);
+        InspectCommandTest.Result self = InspectCommandTest.run("frame-view", f.toString(), "--out", f.toString(),
+                "--force");
+        assertEquals(Main.EXIT_INPUT_REJECTED, self.code(), self.err());
+        assertTrue(self.err().contains("is the frame being drawn"), self.err());
+        assertArrayEquals(original, Files.readAllBytes(f), "the frame is unchanged");
+
+        Path mine = dir.resolve("notes.png");
+        Files.writeString(mine, "mine");
+        InspectCommandTest.Result exists = InspectCommandTest.run("frame-view", f.toString(), "--out", mine.toString());
+        assertEquals(Main.EXIT_INPUT_REJECTED, exists.code(), exists.err());
+        assertTrue(exists.err().contains("exists already") && exists.err().contains("--force"), exists.err());
+        assertEquals("mine", Files.readString(mine));
+        assertEquals(0, InspectCommandTest.run("frame-view", f.toString(), "--out", mine.toString(), "--force").code());
+        assertTrue(Files.size(mine) > 100, "replaced when asked");
+
+        // a folder: one line, no stack trace
+        InspectCommandTest.Result folder = InspectCommandTest.run("frame-view", f.toString(), "--out", dir.toString());
+        assertEquals(Main.EXIT_INPUT_REJECTED, folder.code(), folder.err());
+        assertTrue(folder.err().contains("is a folder"), folder.err());
+        assertEquals(1, folder.err().lines().count(), folder.err());
     }
 }

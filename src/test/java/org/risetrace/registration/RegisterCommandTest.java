@@ -75,6 +75,14 @@ class RegisterCommandTest {
         assertEquals(Math.round(scene.widthMm * 1.5), rect.getWidth());
         assertEquals(Math.round(scene.heightMm * 1.5), rect.getHeight());
         assertTrue(Files.notExists(dir.resolve("rectified/frame_5.png")), "no rectified image of a failed frame");
+
+        // a second run does not replace the first one's registration.json unasked (common practice: never
+        // overwrite a file the user did not ask to replace; it may be the only record of a run, or edited)
+        Files.writeString(dir.resolve("registration.json"), "{\"mine\": true}");
+        assertEquals(1, Main.run("register", dir.toString()));
+        assertEquals("{\"mine\": true}", Files.readString(dir.resolve("registration.json")));
+        assertEquals(0, Main.run("register", dir.toString(), "--force"));
+        assertEquals(6, SeriesRegistration.read(dir.resolve("registration.json")).frames().size());
     }
 
     @Test

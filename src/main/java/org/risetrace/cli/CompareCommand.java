@@ -100,6 +100,9 @@ public final class CompareCommand implements Callable<Integer> {
         Series s = Series.open(List.of(before, after), Files.isRegularFile(sidecar) ? sidecar : null, profile);
         for (String w : s.warnings()) err.println("risetrace: " + w);
         int ib = s.fileName(0).equals(before.getFileName().toString()) ? 0 : 1;
+        String swapped = s.orderProblem(ib, 1 - ib);
+        if (swapped != null) throw new InputRejected(before, swapped, "give the earlier frame first: compare "
+                + after.getFileName() + " " + before.getFileName());
         Frame fb = s.read(ib), fa = s.read(1 - ib);
         Path boardFile = board != null ? board : folder.resolve("board.json");
         if (!Files.isRegularFile(boardFile))

@@ -310,6 +310,23 @@ public final class Series implements Iterable<Frame> {
         return tSeconds[i];
     }
 
+    /**
+     * Why frame {@code before} cannot be the "before" of a comparison with frame {@code after}: it was captured
+     * later (by times the series knows: series.json t_s or the files' capture times; file-name order says nothing);
+     * null when the order is right or unknown. Swapped, a heated part reads as cooled and a comparison finds no
+     * heating with confidence.
+     */
+    public String orderProblem(int before, int after) {
+        if ("file-name order".equals(timeSource) || !(tSeconds[before] > tSeconds[after])) return null;
+        return String.format(java.util.Locale.ROOT, "the before frame %s was captured %s s after the after frame %s "
+                + "(%s)", fileName(before), fixedSeconds(tSeconds[before] - tSeconds[after]), fileName(after),
+                timeSource);
+    }
+
+    private static String fixedSeconds(double s) {
+        return s == Math.rint(s) ? String.valueOf((long) s) : String.format(java.util.Locale.ROOT, "%.3f", s);
+    }
+
     /** Absolute capture instant from image metadata, or null. */
     public Instant instant(int i) {
         return instants[i];

@@ -547,6 +547,8 @@ final class Api {
         for (int i : new int[]{q.before(), q.after()})
             if (i < 0 || i >= s.size()) throw WebError.badRequest("frame index " + i + " is not in the series (0 to " + (s.size() - 1) + ")");
         if (q.before().equals(q.after())) throw WebError.badRequest("pick two different frames");
+        String swapped = s.orderProblem(q.before(), q.after());
+        if (swapped != null) throw WebError.badRequest(swapped + ": pick the earlier frame as before");
         Path boardFile = dir.resolve(BOARD_FILE);
         if (!Files.isRegularFile(boardFile))
             throw new WebError(422, "no " + BOARD_FILE + " beside the series yet: mark the outline and parts, then save");

@@ -63,4 +63,18 @@ class TwoFrameSeriesTest {
         assertEquals(c.get("verdict").get("ref").asText(), row.get("designator").asText(), row.toString());
         assertEquals(List.of("identified"), List.of(row.get("status").asText()));
     }
+
+    @Test
+    void aSwappedPairIsRefusedRatherThanReadAsCooling() throws Exception {
+        // swapped, a heated part reads as cooled and the comparison found "no heating" with confidence; the series
+        // knows the order (series.json t_s: f0001 at 0 s, f0002 at 30 s)
+        Path s = Path.of("sample-frames", "before-after");
+        InspectCommandTest.Result r = InspectCommandTest.run("compare", s.resolve("f0002.tif").toString(),
+                s.resolve("f0001.tif").toString(), "--out", dir.resolve("swapped").toString());
+        assertEquals(Main.EXIT_INPUT_REJECTED, r.code(), r.err());
+        assertTrue(r.err().contains("the before frame f0002.tif was captured 30 s after the after frame f0001.tif"),
+                r.err());
+        assertEquals(1, r.err().lines().count(), r.err());
+        assertTrue(Files.notExists(dir.resolve("swapped").resolve("analysis.json")), "nothing written");
+    }
 }

@@ -21,6 +21,23 @@ import java.util.concurrent.Future;
  * steady analysis and the {@link LockInAnalysis}.
  */
 public final class LockInAnalyzer {
+    /** Fewest frames per period of the excitation a lock-in analysis accepts. */
+    static final int MIN_FRAMES_PER_PERIOD = 4;
+
+    private static String framesPerPeriod(double f) {
+        return Math.abs(f - Math.rint(f)) < 1e-6 ? String.valueOf((long) Math.rint(f))
+                : String.format(Locale.ROOT, "%.1f", f);
+    }
+
+    /** The median spacing of the frames (0 for fewer than two). */
+    static double medianInterval(double[] t) {
+        if (t.length < 2) return 0;
+        double[] d = new double[t.length - 1];
+        for (int i = 1; i < t.length; i++) d[i - 1] = t[i] - t[i - 1];
+        java.util.Arrays.sort(d);
+        return d.length % 2 == 1 ? d[d.length / 2] : 0.5 * (d[d.length / 2 - 1] + d[d.length / 2]);
+    }
+
     /** Fewest whole periods a lock-in analysis accepts. */
     public static final int MIN_PERIODS = 2;
     /** Largest chance that noise alone makes the spectrum's peak, for a period found from the spectrum. */
@@ -49,6 +66,15 @@ public final class LockInAnalyzer {
             throw new InputRejected(series.folder().resolve("series.json"), e.getMessage(),
                     "record the switching of a timer-driven supply or switch");
         }
+        // the fundamental sampled at least MIN_FRAMES_PER_PERIOD times a period (README "Lock-in"): at two a
+        // period its quadrature is not observable and the fit returned NaN or amplitudes of 1e12 K
+        double dt = medianInterval(times);
+        if (times.length > 1 && excitation.periodS() < MIN_FRAMES_PER_PERIOD * dt)
+            throw new InputRejected(series.folder().resolve("series.json"), String.format(Locale.ROOT,
+                    "the excitation's period of %.3g s holds %s frames (one every %.3g s); lock-in needs at least %d"
+                            + " a period", excitation.periodS(), framesPerPeriod(excitation.periodS() / dt), dt,
+                    MIN_FRAMES_PER_PERIOD),
+                    "check injection.period_s; or switch more slowly, or capture faster");
         Excitation.Window window = excitation.window(times);
         if (window.periods() < MIN_PERIODS)
             throw new InputRejected(series.folder(), String.format(Locale.ROOT,

@@ -146,4 +146,30 @@ class LockInDemoTest {
         assertTrue(r.err().contains("lock-in needs at least 2"), r.err());
         assertEquals(1, r.err().strip().lines().count(), r.err());
     }
+
+    @Test
+    void aPeriodOfTooFewFramesIsRefusedInOneLine(@TempDir Path dir) throws IOException {
+        // frames every 0.5 s and a 1 s period: two frames a period, the Nyquist limit, where the fundamental's
+        // quadrature part cannot be seen (sampling theorem; the fit gave amplitudes of 1e12 K); the README asks for
+        // at least 4 frames a period
+        Path s = dir.resolve("fast");
+        Files.createDirectories(s);
+        try (var files = Files.list(SERIES)) {
+            for (Path f : (Iterable<Path>) files::iterator)
+                if (f.getFileName().toString().endsWith(".png") || f.getFileName().toString().equals("board.json"))
+                    Files.copy(f, s.resolve(f.getFileName()));
+        }
+        ObjectMapper json = new ObjectMapper();
+        com.fasterxml.jackson.databind.node.ObjectNode sidecar =
+                (com.fasterxml.jackson.databind.node.ObjectNode) json.readTree(SERIES.resolve("series.json").toFile());
+        com.fasterxml.jackson.databind.node.ObjectNode injection =
+                (com.fasterxml.jackson.databind.node.ObjectNode) sidecar.get("injection");
+        injection.put("period_s", 1.0);
+        injection.put("on_s", 0.5);
+        json.writeValue(s.resolve("series.json").toFile(), sidecar);
+        InspectCommandTest.Result r = InspectCommandTest.run("analyze", s.toString(), "--out", dir.resolve("o").toString());
+        assertEquals(Main.EXIT_INPUT_REJECTED, r.code(), r.out());
+        assertTrue(r.err().contains("holds 2 frames") && r.err().contains("lock-in needs at least 4 a period"), r.err());
+        assertEquals(1, r.err().strip().lines().count(), r.err());
+    }
 }

@@ -168,6 +168,7 @@ public final class Series implements Iterable<Frame> {
         }
 
         int n = frames.size();
+        checkSpans(frames, sidecar, sidecarFile, entriesByName, profile, warnings);
         double[] t = new double[n];
         Instant[] instants = new Instant[n];
         String source = times(frames, sidecar, sidecarFile, entriesByName, t, instants, warnings);
@@ -244,6 +245,31 @@ public final class Series implements Iterable<Frame> {
         }
         for (int i = 0; i < n; i++) t[i] = i * interval;
         return "file-name order";
+    }
+
+    /**
+     * Spans of greyscale frames: per frame for every frame or for none (an auto-ranging camera changes its span
+     * from frame to frame, so a frame without its own would be read on another span, silently); and where they come
+     * from the profile alone, a warning that names the span assumed (a bundled profile's span is a placeholder, not
+     * what the camera showed).
+     */
+    private static void checkSpans(List<Path> frames, Sidecar sidecar, Path sidecarFile,
+                                   Map<String, Sidecar.FrameEntry> entries, Profile profile, List<String> warnings) {
+        int withSpan = 0;
+        String missing = null;
+        for (Path f : frames) {
+            Sidecar.FrameEntry e = entries.get(f.getFileName().toString());
+            if (e != null && e.spanC() != null) withSpan++;
+            else if (missing == null) missing = f.getFileName().toString();
+        }
+        if (withSpan > 0 && withSpan < frames.size() && sidecar.spanC() == null)
+            throw new InputRejected(sidecarFile, "frame " + missing + " has no span_c while " + withSpan
+                    + " other frames have one", "give every frame its span_c under \"frames\", or a span_c for all");
+        if (withSpan == 0 && sidecar.spanC() == null && profile != null && "span".equals(profile.encoding())
+                && profile.spanC() != null)
+            warnings.add(String.format(Locale.ROOT, "no span_c in %s: greyscale frames read on the profile %s's span"
+                            + " %.4g to %.4g \u00b0C (set span_c in series.json to the span the camera showed)",
+                    Sidecars.FILE_NAME, profile.name(), profile.spanC()[0], profile.spanC()[1]));
     }
 
     private static int firstNotRising(double[] t) {

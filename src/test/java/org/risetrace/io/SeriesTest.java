@@ -135,6 +135,25 @@ class SeriesTest {
     }
 
     @Test
+    void aFrameWithoutItsOwnSpanAmongFramesWithOneIsRefused() throws IOException {
+        // an auto-ranging camera changes its span frame by frame (common practice): a frame without its own span
+        // among frames with one was read on the profile's placeholder span, silently (20.2 degC among 22.9 degC)
+        BufferedImage img = new BufferedImage(4, 3, BufferedImage.TYPE_BYTE_GRAY);
+        ImageIO.write(img, "png", dir.resolve("a.png").toFile());
+        ImageIO.write(img, "png", dir.resolve("b.png").toFile());
+        Files.writeString(dir.resolve("series.json"), """
+                {"profile": "u8-span", "frames": {"b.png": {"span_c": [25, 60]}}}""");
+        InputRejected e = assertThrows(InputRejected.class, () -> Series.open(dir));
+        assertTrue(e.getMessage().contains("series.json") && e.getMessage().contains("frame a.png has no span_c while 1"
+                + " other frames have one"), e.getMessage());
+        // with no span anywhere but the profile's, the series opens and says which span it assumed
+        Files.writeString(dir.resolve("series.json"), "{\"profile\": \"u8-span\"}");
+        Series s = Series.open(dir);
+        assertTrue(s.warnings().stream().anyMatch(w -> w.contains("profile u8-span's span 20.00 to 40.00")),
+                s.warnings().toString());
+    }
+
+    @Test
     void perFrameSpanOverridesTheSeriesSpan() throws IOException {
         BufferedImage img = new BufferedImage(4, 3, BufferedImage.TYPE_BYTE_GRAY);
         img.getRaster().setSample(0, 0, 0, 255);

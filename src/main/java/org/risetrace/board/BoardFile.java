@@ -230,7 +230,31 @@ public final class BoardFile {
             if (ar.xMm() - ar.wMm() / 2 < -EDGE_TOLERANCE_MM || ar.xMm() + ar.wMm() / 2 > w + EDGE_TOLERANCE_MM
                     || ar.yMm() - ar.hMm() / 2 < -EDGE_TOLERANCE_MM || ar.yMm() + ar.hMm() / 2 > h + EDGE_TOLERANCE_MM)
                 throw new InputRejected(file, "ambient area " + f + " lies outside the board");
+            String under = partUnder(ar, b.partsOrEmpty());
+            if (under != null)
+                throw new InputRejected(file, "ambient area " + f + " overlaps part " + under
+                        + ": the background reading would heat with the part and cancel its rise",
+                        "place ambient areas on bare board away from the parts");
         }
+    }
+
+    /**
+     * The first part whose footprint covers any of a 40 x 40 lattice of points inside the area (cell centres), or
+     * null. A lattice, not an exact rectangle intersection: parts may be rotated, and a sliver of overlap under a
+     * fortieth of the area's side does not move a median of the background.
+     */
+    static String partUnder(Area ar, List<Part> parts) {
+        int n = 40;
+        for (Part p : parts) {
+            if (p == null) continue;
+            for (int j = 0; j < n; j++)
+                for (int i = 0; i < n; i++) {
+                    double x = ar.xMm() - ar.wMm() / 2 + (i + 0.5) * ar.wMm() / n;
+                    double y = ar.yMm() - ar.hMm() / 2 + (j + 0.5) * ar.hMm() / n;
+                    if (p.contains(x, y)) return p.ref();
+                }
+        }
+        return null;
     }
 
     /** C0 and C1 control characters and DEL: a terminal acts on them (ESC sequences, BEL). */

@@ -183,6 +183,18 @@ class BoardFileTest {
     }
 
     @Test
+    void ambientAreaOnAPartIsRejected() throws IOException {
+        // the ambient reading is subtracted from every part's: an area on a heating part cancels that part's rise
+        // (common practice: ambient is read on bare board); on Q4 (41.5, 22, 5 x 6 mm) it cut the rate 64-fold
+        InputRejected e = rejected(fixture().replace("{ \"x_mm\": 5.0, \"y_mm\": 5.0", "{ \"x_mm\": 42.0, \"y_mm\": 22.0"));
+        assertTrue(e.reason().contains("ambient[0]") && e.reason().contains("overlaps part Q4"), e.getMessage());
+        // touching only: the area's edge 0.5 mm from Q4's side is bare board
+        Path near = dir.resolve("near.json");
+        Files.writeString(near, fixture().replace("{ \"x_mm\": 5.0, \"y_mm\": 5.0", "{ \"x_mm\": 36.5, \"y_mm\": 22.0"));
+        assertEquals(1, BoardFile.read(near, MATERIALS).ambient().size());
+    }
+
+    @Test
     void missingFileIsRejected() {
         Path f = dir.resolve("none.json");
         InputRejected e = assertThrows(InputRejected.class, () -> BoardFile.read(f, null));

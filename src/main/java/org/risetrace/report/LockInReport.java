@@ -94,6 +94,10 @@ public final class LockInReport {
         return null;
     }
 
+    /** The steady report's cautions and those of a supply switched on and off. */
+    public static final String SAFETY_TEXT = ReportHtml.SAFETY_TEXT + " A switched supply is still a live supply:"
+            + " the board is powered whenever the timer switches it on, and a part that heats in pulses still burns.";
+
     /** The steady report with the lock-in section in front of it. */
     public static String toHtml(LockIn lockIn, String caseNotes) {
         String steady = ReportHtml.toHtml(lockIn.steady(), caseNotes);
@@ -133,6 +137,8 @@ public final class LockInReport {
                     .append(sv.ref() == null ? "" : " (" + esc(sv.ref()) + ")").append(" \u2013 ")
                     .append(esc(sv.reason())).append("</p>\n");
         h.append("</section>\n");
+        // the cautions under the answer, as on a steady report, with those of a switched supply
+        h.append("<aside class=\"safety\"><h2>Safety</h2><p>").append(esc(SAFETY_TEXT)).append("</p></aside>\n");
 
         h.append("<section><h2>Lock-in: excitation and sensitivity</h2>\n<dl class=\"facts\">\n");
         Excitation e = r.excitation();

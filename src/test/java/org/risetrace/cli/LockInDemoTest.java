@@ -61,6 +61,11 @@ class LockInDemoTest {
         String html = Files.readString(out.resolve("report.html"));
         assertTrue(html.contains("lock-in analysis") && html.contains("Lock-in amplitude map")
                 && html.contains("Lock-in phase map") && html.contains("To halve it"), "report sections");
+        // the cautions right under the lock-in answer, with the switched supply's (README "Lock-in"), before the
+        // steady analysis shown for comparison
+        int caution = html.indexOf("A switched supply is still a live supply");
+        assertTrue(caution > html.indexOf("lock-in analysis") && caution < html.indexOf("Lock-in amplitude map")
+                && caution < html.indexOf("Steady analysis of the same frames"), "safety under the lock-in verdict");
     }
 
     @Test

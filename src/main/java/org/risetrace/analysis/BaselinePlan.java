@@ -22,12 +22,13 @@ public record BaselinePlan(boolean[] baseline, boolean[] last, double tStartS, S
         if (injectionStartS != null && before > 0) {
             for (int i = 0; i < n; i++) base[i] = tS[i] < injectionStartS;
             tStart = injectionStartS;
-            rule = before + " frames before the injection start at " + injectionStartS + " s";
+            rule = before + (before == 1 ? " frame" : " frames") + " before the injection start at " + injectionStartS + " s";
         } else {
             int b = Math.min(n, baselineFrames != null ? baselineFrames : 1);
             for (int i = 0; i < b; i++) base[i] = true;
             tStart = injectionStartS != null ? injectionStartS : (b > 0 ? tS[b - 1] : 0);
-            rule = baselineFrames != null ? "the first " + b + " frames (option)" : "the first frame";
+            rule = baselineFrames != null ? (b == 1 ? "the first frame (option)" : "the first " + b + " frames (option)")
+                    : "the first frame";
         }
         int marked = 0;
         for (int i = n - 1; i >= 0 && marked < lastFrames; i--)

@@ -369,7 +369,11 @@ public final class ReportHtml {
             ObjectMapper m = AnalysisJson.mapper();
             r.parameters().entrySet().stream().sorted(Map.Entry.comparingByKey()).forEach(e -> {
                 String value;
+                // the page rounds what analysis.json keeps exact: four significant figures, a dash for none
                 if (e.getValue() instanceof String s) value = s;
+                else if (e.getValue() == null) value = "\u2013";
+                else if (e.getValue() instanceof Double || e.getValue() instanceof Float)
+                    value = sig(((Number) e.getValue()).doubleValue(), 4);
                 else {
                     try { value = m.writeValueAsString(e.getValue()); } catch (JsonProcessingException ex) { value = String.valueOf(e.getValue()); }
                 }

@@ -272,6 +272,14 @@ class ReportHtmlTest {
         assertEquals("Q3 heats fastest: 0.20 K/s over the first 6 s, 7.9 sigma ahead of Q5",
                 ReportHtml.headline(windowed));
         assertTrue(ReportHtml.toHtml(windowed, null).contains("initial rate (K/s) over the first 6 s"));
+        // the parameters table rounds what analysis.json keeps exact, and shows a dash for a value not recorded
+        params.put("zz_ratio", 2.3972970917690457);
+        params.put("zz_none", null);
+        String page = ReportHtml.toHtml(new Analysis(new AnalysisResult(r.schema(), r.tool(), r.version(),
+                r.createdUtc(), r.series(), r.board(), r.profile(), params, r.injection(), r.verdict(), r.parts(),
+                r.hotspots(), r.frames()), a.board(), a.curves(), a.riseMap(), a.onsetMap(), a.lastFrame()), null);
+        assertTrue(page.contains("<th>zz_ratio</th><td>2.397</td>"), "four significant figures");
+        assertTrue(page.contains("<th>zz_none</th><td>\u2013</td>"), "a dash, not null");
     }
 
     private static Analysis withVerdict(Analysis a, Verdict v) {

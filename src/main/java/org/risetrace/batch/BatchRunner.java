@@ -25,7 +25,6 @@ import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.Comparator;
-import java.util.HashMap;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
@@ -42,7 +41,8 @@ import java.util.stream.Stream;
  * {@link LockInAnalyzer}, and the report stage's writers), several series at a time; a series that fails is
  * recorded with its error and the batch goes on. Outputs of a series are written into a staging folder, renamed
  * into place one by one, and the manifest last; summary.json, summary.csv and index.html are written after every
- * series, each through a temporary name.
+ * series, each through a temporary name. Before any of that the output folder is checked and marked as the
+ * batch's own ({@link BatchOutput}), so that a user's files are never written over.
  */
 public final class BatchRunner {
     static final String STAGING_PREFIX = ".staging-";
@@ -122,12 +122,12 @@ public final class BatchRunner {
 
     /** Runs the batch over root into out. */
     public static Outcome run(Path root, Path out, Options options, Listener listener) {
-        if (Files.isDirectory(root) && root.toAbsolutePath().normalize().equals(out.toAbsolutePath().normalize()))
-            throw new InputRejected(out, "the output folder is the root itself (its parts.csv would be read as frames next time)",
-                    "name another --out folder");
+        BatchOutput.checkPlacement(root, out);
+        BatchOutput.checkOwned(out);
         List<SeriesTask> all = SeriesDiscovery.find(root, out);
         if (all.isEmpty())
             throw new InputRejected(root, "no series found", "a series is a folder of frames with a board.json in it or in a parent folder");
+        BatchOutput.claim(out);
         List<SeriesTask> mine = options.shard().select(all);
         String version = SeriesAnalyzer.version();
         String parameters = options.parametersJson();
@@ -343,8 +343,9 @@ public final class BatchRunner {
      */
     public static BatchSummary merge(List<Path> shardOuts, Path out) {
         if (shardOuts.isEmpty()) throw new InputRejected(null, "no shard output folders named");
+        BatchOutput.checkOwned(out);
         List<SeriesSummary> rows = new ArrayList<>();
-        Map<String, Path> seen = new HashMap<>();
+        Map<String, Path> seen = new LinkedHashMap<>();
         String version = null;
         for (Path shardOut : shardOuts) {
             BatchSummary s = BatchSummary.read(shardOut.resolve(BatchSummary.JSON_FILE));
@@ -354,16 +355,21 @@ public final class BatchRunner {
                 if (before != null)
                     throw new InputRejected(shardOut, "series '" + row.series() + "' is also in " + before,
                             "merge the outputs of distinct shards of one batch");
-                Path from = outputFolder(shardOut, row.series()), to = outputFolder(out, row.series());
-                if (!from.toAbsolutePath().normalize().equals(to.toAbsolutePath().normalize())) {
-                    try {
-                        for (String name : new String[]{Reports.JSON_FILE, Reports.CSV_FILE, Reports.HTML_FILE, Manifest.FILE_NAME})
-                            if (Files.isRegularFile(from.resolve(name))) AtomicFiles.copy(from.resolve(name), to.resolve(name));
-                    } catch (IOException e) {
-                        throw new InputRejected(to, "cannot copy the outputs of " + from + ": " + e.getMessage());
-                    }
-                }
                 rows.add(row);
+            }
+        }
+        // every shard read and no series twice: only now is anything written
+        BatchOutput.claim(out);
+        for (SeriesSummary row : rows) {
+            Path shardOut = seen.get(row.series());
+            Path from = outputFolder(shardOut, row.series()), to = outputFolder(out, row.series());
+            if (!from.toAbsolutePath().normalize().equals(to.toAbsolutePath().normalize())) {
+                try {
+                    for (String name : new String[]{Reports.JSON_FILE, Reports.CSV_FILE, Reports.HTML_FILE, Manifest.FILE_NAME})
+                        if (Files.isRegularFile(from.resolve(name))) AtomicFiles.copy(from.resolve(name), to.resolve(name));
+                } catch (IOException e) {
+                    throw new InputRejected(to, "cannot copy the outputs of " + from + ": " + e.getMessage());
+                }
             }
         }
         rows.sort(Comparator.comparing(SeriesSummary::series));

@@ -18,8 +18,8 @@ import java.util.stream.Stream;
  * Finds the series under a root: every folder (the root included) holding a file with a frame extension (what
  * {@link Series#open} reads) or a series.json, each with its own board.json or the nearest parent's up to the root.
  * A folder with a series.json but no frames is kept, so that its error ("no frame files") reaches the summary.
- * Hidden folders, the batch's own output folder and other batch output folders (summary.json with index.html) are
- * not entered; parts.csv and summary.csv (our outputs) do not make a folder a series.
+ * Hidden folders, the batch's own output folder and other batch output folders (batch-output.json, or summary.json
+ * with index.html, and no frames) are not entered; parts.csv and summary.csv (our outputs) do not make a folder a series.
  */
 public final class SeriesDiscovery {
     public static final String BOARD_FILE = "board.json";
@@ -47,23 +47,38 @@ public final class SeriesDiscovery {
         } catch (IOException e) {
             throw new InputRejected(folder, "cannot list the folder: " + e.getMessage());
         }
-        boolean series = false;
+        boolean series = holdsSeries(entries);
+        if (!series && !folder.equals(root) && (Files.isRegularFile(folder.resolve(BatchOutput.MARKER))
+                || Files.isRegularFile(folder.resolve(BatchSummary.JSON_FILE)) && Files.isRegularFile(folder.resolve(IndexHtml.FILE_NAME))))
+            return; // another batch's output folder (for example under risetrace-out/ in the root); one holding
+                    // frames is a series that an earlier version let a batch write its summary into
+        if (series) found.add(new SeriesTask(folder, relative(root, folder), boardFor(root, folder)));
+        for (Path p : entries) {
+            if (!Files.isDirectory(p) || p.getFileName().toString().startsWith(".")) continue;
+            if (excluded != null && p.toAbsolutePath().normalize().equals(excluded)) continue;
+            visit(root, p, excluded, found);
+        }
+    }
+
+    /** True when the folder holds a frame file or a series.json: discovery takes it for a series. */
+    static boolean holdsSeries(Path folder) {
+        try (Stream<Path> s = Files.list(folder)) {
+            return holdsSeries(s.toList());
+        } catch (IOException e) {
+            throw new InputRejected(folder, "cannot list the folder: " + e.getMessage());
+        }
+    }
+
+    private static boolean holdsSeries(List<Path> entries) {
         for (Path p : entries) {
             if (!Files.isRegularFile(p)) continue;
             String name = p.getFileName().toString();
             String lower = name.toLowerCase(Locale.ROOT);
             if (name.startsWith(".") || lower.equals(Series.BENCH_READINGS_FILE)) continue;
             if (OUR_OUTPUTS.contains(name)) continue; // parts.csv of an earlier analyze run is not a frame
-            if (lower.equals(Sidecars.FILE_NAME) || FrameReaders.isImageFile(p)) series = true;
+            if (lower.equals(Sidecars.FILE_NAME) || FrameReaders.isImageFile(p)) return true;
         }
-        if (series) found.add(new SeriesTask(folder, relative(root, folder), boardFor(root, folder)));
-        for (Path p : entries) {
-            if (!Files.isDirectory(p) || p.getFileName().toString().startsWith(".")) continue;
-            if (excluded != null && p.toAbsolutePath().normalize().equals(excluded)) continue;
-            if (Files.isRegularFile(p.resolve(BatchSummary.JSON_FILE)) && Files.isRegularFile(p.resolve(IndexHtml.FILE_NAME)))
-                continue; // another batch's output folder (for example under risetrace-out/ in the root)
-            visit(root, p, excluded, found);
-        }
+        return false;
     }
 
     static String relative(Path root, Path folder) {

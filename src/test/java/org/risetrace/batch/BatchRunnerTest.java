@@ -236,6 +236,11 @@ class BatchRunnerTest {
         assertEquals(Files.readString(baseline.out().resolve("summary.csv")), Files.readString(merged.resolve("summary.csv")));
         assertEquals(Files.readString(baseline.out().resolve("index.html")), Files.readString(merged.resolve("index.html")));
         for (String rel : GOOD) assertTrue(Files.isRegularFile(merged.resolve(rel).resolve("report.html")), rel);
+        // a merge's own output folder is accepted again: merging anew gives the same summary
+        Result again = runMain("batch", "merge", s1.toString(), s2.toString(), "--out", merged.toString());
+        assertEquals(Main.EXIT_INPUT_REJECTED, again.code(), "three series failed: " + again.err());
+        assertFalse(again.err().contains("did not write"), again.err());
+        assertEquals(Files.readString(baseline.out().resolve("summary.json")), Files.readString(merged.resolve("summary.json")));
         // the same shard twice is refused
         Result twice = runMain("batch", "merge", s1.toString(), s1.toString(), "--out", tmp.resolve("out-twice").toString());
         assertEquals(Main.EXIT_INPUT_REJECTED, twice.code());
@@ -327,6 +332,112 @@ class BatchRunnerTest {
         Result r = runMain("batch", root.toString(), "--out", root.toString());
         assertEquals(Main.EXIT_INPUT_REJECTED, r.code());
         assertTrue(r.err().strip().lines().count() == 1 && r.err().contains("the output folder is the root"), r.err());
+    }
+
+    @Test
+    void aBatchRefusesAnOutputFolderHoldingAUsersFilesBeforeAnyWork() throws IOException {
+        Path own = tmp.resolve("own3");
+        Path mine = Files.createDirectories(own.resolve("boardA/inj1")).resolve("report.html");
+        Files.writeString(mine, "<p>my report</p>\n");
+        for (String force : new String[]{"--quiet", "--force"}) {
+            Result r = runMain("batch", root.toString(), "--out", own.toString(), force);
+            // README, "Exit codes": a rejected input exits 1 with one line on stderr
+            assertEquals(Main.EXIT_INPUT_REJECTED, r.code(), r.err());
+            // the line names the folder, its first foreign entry and what to do instead
+            assertTrue(r.err().strip().lines().count() == 1 && r.err().contains(own.toString())
+                    && r.err().contains("did not write (boardA)") && r.err().contains("name a new or empty folder"), r.err());
+            // common practice: never overwrite a user's file, with or without --force (as analyze refuses)
+            assertEquals("<p>my report</p>\n", Files.readString(mine));
+            // refused before any work: not even the marker or an empty series folder was added
+            assertEquals(List.of("boardA"), names(own));
+            assertEquals(List.of("inj1"), names(own.resolve("boardA")));
+        }
+    }
+
+    @Test
+    void mergeRefusesAnOutputFolderHoldingAUsersFileBeforeAnyWork() throws IOException {
+        Path own = Files.createDirectories(tmp.resolve("own2"));
+        Path mine = Files.writeString(own.resolve("summary.csv"), "mine\n");
+        Result r = runMain("batch", "merge", baseline.out().toString(), "--out", own.toString());
+        // README, "Exit codes": a rejected input exits 1 with one line naming the folder and the foreign entry
+        assertEquals(Main.EXIT_INPUT_REJECTED, r.code(), r.err());
+        assertTrue(r.err().strip().lines().count() == 1 && r.err().contains(own.toString())
+                && r.err().contains("(summary.csv)"), r.err());
+        // common practice: never overwrite a user's file
+        assertEquals("mine\n", Files.readString(mine));
+        // refused before any work: no series' outputs were copied in
+        assertEquals(List.of("summary.csv"), names(own));
+    }
+
+    @Test
+    void anEarlierBatchOutputIsReusedUnlessAUserAddedAFile() throws IOException {
+        Path out = copyTree(baseline.out(), tmp.resolve("out-reused"));
+        Path notes = Files.writeString(out.resolve("boardA/notes.txt"), "mine\n");
+        Result r = runMain("batch", root.toString(), "--out", out.toString(), "--quiet");
+        // a file the batch did not write stays the user's even inside its output: refused, named by its path there
+        assertEquals(Main.EXIT_INPUT_REJECTED, r.code(), r.err());
+        assertTrue(r.err().contains("(boardA/notes.txt)"), r.err());
+        assertEquals("mine\n", Files.readString(notes));
+        Files.delete(notes);
+        // the batch's own folder (it holds the marker) is accepted: a re-run resumes and skips every unchanged series
+        assertTrue(Files.isRegularFile(out.resolve(BatchOutput.MARKER)));
+        assertEquals(8, BatchRunner.run(root, out, options(), BatchRunner.Listener.NONE).skipped());
+        // an output written before the marker existed is recognised by its batch summary.json, and marked
+        Files.delete(out.resolve(BatchOutput.MARKER));
+        assertEquals(8, BatchRunner.run(root, out, options(), BatchRunner.Listener.NONE).skipped());
+        assertTrue(Files.isRegularFile(out.resolve(BatchOutput.MARKER)));
+        // what a killed run leaves (a temporary file, a staging folder) belongs to the batch, so resume still works
+        Files.writeString(out.resolve("boardA/inj1/.report.html.tmp-" + java.util.UUID.randomUUID()), "half");
+        Files.createDirectories(out.resolve("boardA/inj1/" + BatchRunner.STAGING_PREFIX + java.util.UUID.randomUUID()));
+        assertEquals(8, BatchRunner.run(root, out, options(), BatchRunner.Listener.NONE).skipped());
+    }
+
+    @Test
+    void anOutputFolderThatIsOrLiesInASeriesFolderIsRefused() throws IOException {
+        Path r2 = tmp.resolve("r2");
+        // placeholder frames: the placement is checked before any frame is read
+        for (String d : new String[]{"a", "b"}) Files.writeString(Files.createDirectories(r2.resolve(d)).resolve("f0001.png"), "x");
+        Files.writeString(r2.resolve("board.json"), "{}");
+        for (Path out : List.of(r2.resolve("a"), r2.resolve("a/results"))) {
+            Result r = runMain("batch", r2.toString(), "--out", out.toString(), "--quiet");
+            // README, "Exit codes": a rejected input exits 1, one line naming the folder and the series, with a hint
+            assertEquals(Main.EXIT_INPUT_REJECTED, r.code(), r.err());
+            assertTrue(r.err().strip().lines().count() == 1 && r.err().contains(out.toString())
+                    && r.err().contains("the series folder 'a'") && r.err().contains("outside every series folder"), r.err());
+            // nothing written among the captured frames (the series was silently dropped before)
+            assertEquals(List.of("f0001.png"), names(r2.resolve("a")));
+        }
+        // the default output location, risetrace-out/batch-NAME, when run from within the root is still accepted
+        assertEquals(2, BatchRunner.run(r2, r2.resolve("risetrace-out/batch-r2"), options(), BatchRunner.Listener.NONE)
+                .summary().total());
+        // likewise when the root is itself a series: its output folder is a subfolder it does not read
+        Path r3 = tmp.resolve("r3");
+        Files.writeString(Files.createDirectories(r3).resolve("f0001.png"), "x");
+        assertEquals(1, BatchRunner.run(r3, r3.resolve("risetrace-out/batch-r3"), options(), BatchRunner.Listener.NONE)
+                .summary().total());
+        // a series folder that an earlier version wrote a summary into (it looked like a batch output) is a series again
+        Files.writeString(r2.resolve("a/summary.json"), "{}");
+        Files.writeString(r2.resolve("a/index.html"), "");
+        List<String> rels = new ArrayList<>();
+        for (SeriesTask t : SeriesDiscovery.find(r2, null)) rels.add(t.relativePath());
+        assertEquals(List.of("a", "b"), rels);
+    }
+
+    static List<String> names(Path dir) throws IOException {
+        try (var s = Files.list(dir)) {
+            return s.map(p -> p.getFileName().toString()).sorted().toList();
+        }
+    }
+
+    static Path copyTree(Path from, Path to) throws IOException {
+        try (var s = Files.walk(from)) {
+            for (Path p : s.toList()) {
+                Path q = to.resolve(from.relativize(p).toString());
+                if (Files.isDirectory(p)) Files.createDirectories(q);
+                else Files.copy(p, q);
+            }
+        }
+        return to;
     }
 
     record Result(int code, String out, String err) {

@@ -2,6 +2,10 @@ package org.risetrace.archive;
 
 import com.fasterxml.jackson.databind.ObjectMapper;
 import com.fasterxml.jackson.databind.node.ObjectNode;
+import org.risetrace.board.Board;
+import org.risetrace.board.BoardFile;
+import org.risetrace.calibration.Materials;
+import org.risetrace.frame.InputRejected;
 import org.risetrace.io.Series;
 import org.risetrace.io.Sidecar;
 
@@ -458,9 +462,32 @@ public final class Archive implements AutoCloseable {
                 roles.add(extra[1]);
             }
         }
-        for (Path p : sources)
+        for (Path p : sources) {
             if (!Files.isRegularFile(p, LinkOption.NOFOLLOW_LINKS))
                 throw new ArchiveException(p, "not a regular file (a link, folder or device)", "copy the file itself in");
+            // checked before anything is stored: a file that cannot be read halfway through would leave the files
+            // stored before it behind, named by no record
+            if (!Files.isReadable(p)) throw new ArchiveException(p, "cannot read the file (no permission)");
+        }
+        // an archived original never changes and a taken series name refuses other files, so a board the analysis
+        // cannot read would stay in the case for good: common practice, evidence stores only what can be analysed
+        if (roles.contains("board")) checkBoard(board, s);
+        // the series name is taken: decide from the files' hashes before storing anything, so a refusal leaves no
+        // stored file behind (hashing twice costs only here; a new name, the usual case, hashes once, while storing)
+        SeriesRecord taken = index.read(c -> seriesRow(c, caseNumber, name));
+        if (taken != null) {
+            List<StoredFile> planned = new ArrayList<>();
+            for (int k = 0; k < sources.size(); k++) {
+                Path p = sources.get(k);
+                try {
+                    planned.add(new StoredFile(k, roles.get(k), storedName(p, roles.get(k)), Hashes.of(p), Files.size(p), null));
+                } catch (IOException e) {
+                    throw new ArchiveException(p, "cannot read the file: " + e.getMessage(), null, e);
+                }
+            }
+            if (sameFiles(taken.files(), planned)) return new Added(taken, true, s.warnings());
+            throw nameTaken(folder, caseNumber, name);
+        }
         // the files are stored by a few threads at once: one file's fsync overlaps the next one's hashing
         StoredFile[] done = new StoredFile[sources.size()];
         java.util.concurrent.ExecutorService pool = java.util.concurrent.Executors.newFixedThreadPool(
@@ -471,7 +498,7 @@ public final class Archive implements AutoCloseable {
                 int k = i;
                 futures.add(pool.submit(() -> {
                     Path p = sources.get(k);
-                    String fileName = roles.get(k).equals("board") ? "board.json" : p.getFileName().toString();
+                    String fileName = storedName(p, roles.get(k));
                     try {
                         String modified = Index.time(Files.getLastModifiedTime(p, LinkOption.NOFOLLOW_LINKS).toInstant());
                         ContentStore.Stored st = store.put(p, null);
@@ -511,8 +538,10 @@ public final class Archive implements AutoCloseable {
             SeriesRecord existing = seriesRow(c, caseNumber, name);
             if (existing != null) {
                 if (sameFiles(existing.files(), stored)) return new Added(existing, true, s.warnings());
-                throw new ArchiveException(folder, "case " + caseNumber + " has a series '" + name + "' with other files",
-                        "add it under another name with --name");
+                // only when another bench took the name since the check above: the files just stored stay, named by
+                // no record (a note of 'case verify', as after a kill); deleting them here could take a file from
+                // under a third bench that stored the same bytes a moment ago and is about to record them
+                throw nameTaken(folder, caseNumber, name);
             }
             insertSeries(c, new SeriesRecord(caseNumber, name, Index.now(), who, source, finalInjection, notes,
                     stored.size(), stored));
@@ -521,6 +550,39 @@ public final class Archive implements AutoCloseable {
                     stored.size() + " files from " + source);
             return new Added(seriesRow(c, caseNumber, name), false, s.warnings());
         });
+    }
+
+    /** The name a series file is stored under: the board file is always board.json, as analysis looks for it. */
+    private static String storedName(Path p, String role) {
+        return role.equals("board") ? "board.json" : p.getFileName().toString();
+    }
+
+    private static ArchiveException nameTaken(Path folder, String caseNumber, String name) {
+        return new ArchiveException(folder, "case " + caseNumber + " has a series '" + name + "' with other files",
+                "add it under another name with --name");
+    }
+
+    /**
+     * Reads the board file as {@code case analyse} will (the materials table, the outline, the frame the outline
+     * was marked on), so a series goes in only with a board it can be analysed against. The message names the
+     * user's file, never a copy.
+     */
+    private static void checkBoard(Path board, Series s) {
+        String hint = "nothing was stored; correct the board file ('risetrace board check' checks it) and add the series again";
+        Board b;
+        try {
+            b = BoardFile.read(board, Materials.load().names());
+        } catch (InputRejected e) {
+            throw new ArchiveException(board, "the board file cannot be analysed: " + e.reason(),
+                    e.hint() == null ? hint : e.hint() + "; " + hint, e);
+        }
+        // analysis aligns every frame to the one the outline was marked on (SeriesAnalyzer.referenceIndex), so that
+        // frame must be one of the series'
+        String ref = b.outline() == null ? null : b.outline().frame();
+        if (ref == null || ref.isBlank()) return;
+        for (int i = 0; i < s.size(); i++) if (s.fileName(i).equals(ref)) return;
+        throw new ArchiveException(board, "the board file cannot be analysed: the outline is marked on frame '" + ref
+                + "', which is not in the series", "mark the outline on a frame of this series (risetrace board); " + hint);
     }
 
     static void insertSeries(Connection c, SeriesRecord r) throws SQLException {

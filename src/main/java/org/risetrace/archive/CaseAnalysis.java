@@ -12,6 +12,7 @@ import org.risetrace.analysis.Verdict;
 import org.risetrace.board.Board;
 import org.risetrace.board.BoardFile;
 import org.risetrace.calibration.Materials;
+import org.risetrace.frame.InputRejected;
 import org.risetrace.io.Series;
 import org.risetrace.report.LockInReport;
 import org.risetrace.report.ReportHtml;
@@ -39,16 +40,55 @@ public final class CaseAnalysis {
 
     private CaseAnalysis() { }
 
+    /**
+     * A refusal about a file of the copied-out series, named as the user knows it: "case 2026-0001, series ba,
+     * board.json: ...". The temporary copy is gone when the message is read, so its path would only confuse (and
+     * it tells nothing about which archived file to look at). Refusals about anything else pass unchanged.
+     */
+    static InputRejected named(InputRejected e, Path work, Path folder, String caseNumber, String seriesName) {
+        if (work == null) return e;
+        String reason = withoutWorkPaths(e.reason(), work, folder);
+        Path f = e.file() == null ? null : e.file().toAbsolutePath().normalize();
+        boolean inWork = f != null && f.startsWith(work.toAbsolutePath().normalize());
+        if (!inWork && reason.equals(e.reason())) return e;
+        StringBuilder where = new StringBuilder("case " + caseNumber + ", series " + seriesName);
+        Path series = folder == null ? null : folder.toAbsolutePath().normalize();
+        boolean storedFile = inWork && series != null && f.startsWith(series) && !f.equals(series);
+        if (storedFile) where.append(", ").append(series.relativize(f));
+        // archived originals never change: a board that cannot be read is replaced only by adding the series anew
+        String hint = e.hint();
+        if (storedFile && f.getFileName().toString().equals("board.json")) {
+            String again = "the archived board file cannot be changed; add the series again under another name with "
+                    + "--name and a corrected --board";
+            hint = hint == null ? again : hint + "; " + again;
+        }
+        if (!inWork) return new ArchiveException(e.file(), reason, hint, e);
+        return new ArchiveException(null, where + ": " + reason, hint, e);
+    }
+
+    /** A message with the temporary folder's paths taken out (a copied file by its name, the copy as "the series"). */
+    private static String withoutWorkPaths(String text, Path work, Path folder) {
+        if (text == null || work == null) return text;
+        String out = text;
+        // the absolute form first: the path as given may be its tail (an archive named by a relative path)
+        for (Path p : folder == null ? List.of(work) : List.of(folder, work))
+            for (String form : List.of(p.toAbsolutePath().normalize().toString(), p.toString())) {
+                if (p == folder) out = out.replace(form + java.io.File.separator, "").replace(form, "the series");
+                else out = out.replace(form, "the temporary work folder");
+            }
+        return out;
+    }
+
     public static Archive.AnalysisRecord analyse(Archive a, String caseNumber, String seriesName, AnalysisOptions options,
                                                  Mode mode, int threads, Analyzer.Progress progress) {
         Archive.SeriesRecord sr = a.series(caseNumber, seriesName);
         if (sr.files().stream().noneMatch(f -> f.role().equals("board")))
             throw new ArchiveException(null, "series '" + seriesName + "' of case " + caseNumber + " has no board file",
                     "add the series again under a new name with --board");
-        Path work = null;
+        Path work = null, folder = null;
         try {
             work = a.store.temporaryFolder();
-            Path folder = a.materialise(sr, work.resolve("series"));
+            folder = a.materialise(sr, work.resolve("series"));
             Path out = work.resolve("out");
             Series s = Series.open(folder);
             Path boardFile = folder.resolve("board.json");
@@ -114,8 +154,12 @@ public final class CaseAnalysis {
                         "series " + seriesName + ", " + modeName + ": " + headline);
                 return Archive.analysisRow(c, id);
             });
+        } catch (InputRejected e) {
+            throw named(e, work, folder, caseNumber, seriesName);
         } catch (IOException e) {
-            throw new ArchiveException(work, "cannot analyse the archived series: " + e.getMessage(), null, e);
+            String label = "case " + caseNumber + ", series " + seriesName;
+            throw new ArchiveException(null, label + ": cannot analyse the archived series: "
+                    + withoutWorkPaths(String.valueOf(e.getMessage()), work, folder), null, e);
         } finally {
             if (work != null) try {
                 ContentStore.deleteTree(work);

@@ -1,5 +1,7 @@
 package org.risetrace.archive;
 
+import com.fasterxml.jackson.databind.ObjectMapper;
+import com.fasterxml.jackson.databind.node.ObjectNode;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.risetrace.analysis.Analysis;
@@ -64,17 +66,105 @@ class ArchiveStoreTest {
     }
 
     @Test
-    void otherFilesUnderATakenSeriesNameAreRefusedAndChangeNothing() {
+    void otherFilesUnderATakenSeriesNameAreRefusedAndChangeNothing() throws Exception {
         Path s1 = Fixtures.series(tmp.resolve("s1"), 11), s2 = Fixtures.series(tmp.resolve("s2"), 12);
         try (Archive a = Archive.open(ArchiveSettings.sqlite(tmp.resolve("archive")), "tess")) {
             a.createCase(Fixtures.newCase("C-1"));
             a.addSeries("C-1", s1, "bench", null);
+            int storedFiles = a.store().all().size();
             ArchiveException e = assertThrows(ArchiveException.class, () -> a.addSeries("C-1", s2, "bench", null));
             assertTrue(e.getMessage().contains("other files"), e.getMessage());
             assertEquals(1, a.show("C-1").series().size());
+            // the refusal is decided before storing: none of s2's files is left behind, named by no record
+            assertEquals(storedFiles, a.store().all().size());
+            assertEquals(List.of(), Verifier.verify(a, null).notes());
+            assertTrue(a.addSeries("C-1", s1, "bench", null).alreadyPresent(), "the same files again change nothing");
             assertThrows(ArchiveException.class, () -> a.addSeries("C-9", s1, null, null), "unknown case");
             assertThrows(ArchiveException.class, () -> a.addSeries("C-1", s1, "../up", null), "unsafe name");
         }
+    }
+
+    @Test
+    void aBoardTheAnalysisCannotReadIsRefusedNamingTheFileAndNothingIsStored() throws Exception {
+        Path src = Fixtures.series(tmp.resolve("ba"), 11);
+        Path malformed = Files.writeString(tmp.resolve("malformed.json"), "{\"size_mm\": [40, 30],");
+        Path unknownMaterial = editedBoard(src, "unknown-material.json",
+                b -> ((ObjectNode) b.get("parts").get(0)).put("material", "unobtainium"));
+        Path otherFrame = editedBoard(src, "other-frame.json", b -> ((ObjectNode) b.get("outline")).put("frame", "f9999.png"));
+        Path inFolder = Fixtures.series(tmp.resolve("bb"), 11);
+        Files.writeString(inFolder.resolve("board.json"), "{\"size_mm\": [40, 30],");
+        try (Archive a = Archive.open(ArchiveSettings.sqlite(tmp.resolve("archive")), "tess")) {
+            a.createCase(Fixtures.newCase("C-1"));
+            // each as analysis would meet it (BoardFile.read with the materials table, the outline's frame): the
+            // message names the user's file and the problem, never a copy inside the archive
+            for (Object[] bad : new Object[][]{{malformed, "malformed JSON"}, {unknownMaterial, "unknown material 'unobtainium'"},
+                    {otherFrame, "frame 'f9999.png', which is not in the series"}}) {
+                Path board = (Path) bad[0];
+                ArchiveException e = assertThrows(ArchiveException.class, () -> a.addSeries("C-1", src, "ba", board));
+                assertTrue(e.getMessage().startsWith(board + ": the board file cannot be analysed: "), e.getMessage());
+                assertTrue(e.getMessage().contains((String) bad[1]), e.getMessage());
+                assertTrue(e.getMessage().contains("nothing was stored"), e.getMessage());
+                assertFalse(e.getMessage().contains(tmp.resolve("archive").toString()), e.getMessage());
+            }
+            // the folder's own board.json is checked alike
+            ArchiveException e = assertThrows(ArchiveException.class, () -> a.addSeries("C-1", inFolder, null, null));
+            assertTrue(e.getMessage().startsWith(inFolder.resolve("board.json") + ": the board file cannot be analysed: "
+                    + "malformed JSON"), e.getMessage());
+            // nothing stored, nothing recorded: verify is clean without a note of stored files no record names
+            assertEquals(List.of(), a.store().all());
+            assertTrue(a.show("C-1").series().isEmpty());
+            Verifier.Report v = Verifier.verify(a, null);
+            assertTrue(v.clean(), v.problems().toString());
+            assertEquals(List.of(), v.notes());
+            // so the series can still go in under the same name with a board that can be analysed
+            Archive.Added added = a.addSeries("C-1", src, "ba", null);
+            assertFalse(added.alreadyPresent());
+            assertEquals(14, added.series().fileCount());
+            v = Verifier.verify(a, null);
+            assertTrue(v.clean(), v.problems().toString());
+            assertEquals(List.of(), v.notes());
+        }
+    }
+
+    @Test
+    void anAnalysisRefusalNamesTheArchivedFileNotItsTemporaryCopy() throws Exception {
+        Path src = Fixtures.series(tmp.resolve("s1"), 11);
+        Path malformed = Files.writeString(tmp.resolve("malformed.json"), "{\"size_mm\": [40, 30],");
+        Path otherFrame = editedBoard(src, "other-frame.json", b -> ((ObjectNode) b.get("outline")).put("frame", "f9999.png"));
+        try (Archive a = Archive.open(ArchiveSettings.sqlite(tmp.resolve("archive")), "tess")) {
+            a.createCase(Fixtures.newCase("C-1"));
+            Archive.SeriesRecord good = a.addSeries("C-1", src, null, null).series();
+            // series recorded as an archive from before add-series checked board files holds them (written to the
+            // index directly: add-series itself now refuses these boards)
+            for (Object[] bad : new Object[][]{{malformed, "ba", "board.json: malformed JSON"},
+                    {otherFrame, "bf", "board.json: the outline is marked on frame 'f9999.png', which is not in the series"}}) {
+                ContentStore.Stored st = a.store().put((Path) bad[0], null);
+                List<Archive.StoredFile> files = good.files().stream().map(f -> !f.role().equals("board") ? f
+                        : new Archive.StoredFile(f.index(), "board", "board.json", st.sha256(), st.sizeBytes(), f.modifiedAt()))
+                        .toList();
+                String name = (String) bad[1];
+                a.index().write(c -> {
+                    Archive.insertSeries(c, new Archive.SeriesRecord("C-1", name, Index.now(), "tess", src.toString(),
+                            null, null, files.size(), files));
+                    return null;
+                });
+                ArchiveException e = assertThrows(ArchiveException.class, () -> CaseAnalysis.analyse(a, "C-1", name,
+                        AnalysisOptions.defaults(), CaseAnalysis.Mode.AUTO, 2, Analyzer.Progress.NONE));
+                // named as the shop knows it: case, series, file; the temporary copy is gone by the time it is read
+                assertTrue(e.getMessage().startsWith("case C-1, series " + name + ", " + bad[2]), e.getMessage());
+                assertFalse(e.getMessage().contains(ContentStore.TMP + "/work-"), e.getMessage());
+                assertFalse(e.getMessage().contains(tmp.toString()), e.getMessage());
+                assertTrue(e.getMessage().contains("add the series again under another name with --name"), e.getMessage());
+            }
+        }
+    }
+
+    /** The fixture's board.json with one change, written to {@code name} beside the series. */
+    private Path editedBoard(Path series, String name, java.util.function.Consumer<ObjectNode> change) throws Exception {
+        ObjectMapper m = new ObjectMapper();
+        ObjectNode b = (ObjectNode) m.readTree(series.resolve("board.json").toFile());
+        change.accept(b);
+        return Files.writeString(tmp.resolve(name), m.writeValueAsString(b));
     }
 
     @Test

@@ -93,6 +93,33 @@ class CaseCommandTest {
         assertEquals(2, r.code());
     }
 
+    @Test
+    void aBoardThatCannotBeAnalysedIsRefusedAndTheSeriesCanThenBeAddedWithAGoodOne() throws Exception {
+        Path series = dir.resolve("ba");
+        Simulator.run(Scenarios.small(0.9).withFrames(12, 0.5, 2.0).withSeed(11), series);
+        Path malformed = Files.writeString(dir.resolve("malformed.json"), "{\"size_mm\": [40, 30],");
+        String a = dir.resolve("archive").toString();
+        assertEquals(0, run("case", "create", "--archive", a, "--by", "tess", "--number", "2026-0001").code());
+        InspectCommandTest.Result r = run("case", "add-series", "--archive", a, "--by", "tess", "2026-0001",
+                series.toString(), "--board", malformed.toString());
+        assertEquals(1, r.code(), r.out() + r.err());
+        // the user's file and the problem, on one line; nothing stored, no path inside the archive
+        assertOneLine(r.err(), malformed + ": the board file cannot be analysed: malformed JSON");
+        assertFalse(r.err().contains("work-"), r.err());
+        assertEquals("", r.out());
+        r = run("case", "verify", "--archive", a, "--by", "tess");
+        assertEquals(0, r.code(), r.out() + r.err());
+        assertFalse(r.out().contains("belong to no record"), r.out());
+        assertTrue(r.out().startsWith("whole: 0 stored files"), r.out());
+        // the same series under the same name with its good board
+        r = run("case", "add-series", "--archive", a, "--by", "tess", "2026-0001", series.toString());
+        assertEquals(0, r.code(), r.err());
+        assertTrue(r.out().contains("2026-0001/ba: 14 files stored"), r.out());
+        r = run("case", "verify", "--archive", a, "--by", "tess");
+        assertEquals(0, r.code(), r.out() + r.err());
+        assertFalse(r.out().contains("note:"), r.out());
+    }
+
     private static void assertOneLine(String err, String contains) {
         String[] lines = err.strip().split("\n");
         assertEquals(1, lines.length, err);

@@ -102,12 +102,12 @@ public final class BoardFile {
                     "known fields: " + e.getKnownPropertyIds(), e);
         } catch (JsonMappingException e) {
             throw new InputRejected(file, "field '" + pathOf(e) + "' has the wrong type" + at(e.getLocation())
-                    + ": " + e.getOriginalMessage().split("\n")[0], "see README, board file", e);
+                    + ": " + org.risetrace.frame.StrictJson.plainProblem(e), "see README, board file", e);
         } catch (JsonProcessingException e) {
             String dup = org.risetrace.frame.StrictJson.duplicateKey(e);
             if (dup != null) throw new InputRejected(file, dup, "give each field once");
             throw new InputRejected(file, "malformed JSON" + at(e.getLocation()) + ": "
-                    + e.getOriginalMessage().split("\n")[0], null, e);
+                    + org.risetrace.frame.StrictJson.plainProblem(e), null, e);
         } catch (IOException e) {
             throw new InputRejected(file, "cannot read board file: " + e.getMessage(), null, e);
         }

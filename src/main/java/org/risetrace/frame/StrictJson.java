@@ -45,6 +45,49 @@ public final class StrictJson {
         return b;
     }
 
+    private static final Pattern FOUND = Pattern.compile("(?:from|coerce) (String|Integer|Floating-point|Boolean|Array|"
+            + "Object|Null|null)\\b", Pattern.CASE_INSENSITIVE);
+
+    /**
+     * A JSON reading error in plain words, without the library's wording (class names, coercion settings, source
+     * redaction notes): "expected a number, found text", "the file ends before the JSON document does". Line and
+     * column are the caller's to add.
+     */
+    public static String plainProblem(JsonProcessingException e) {
+        if (e instanceof com.fasterxml.jackson.core.io.JsonEOFException)
+            return "the file ends before the JSON document does (cut short?)";
+        if (e instanceof com.fasterxml.jackson.databind.exc.MismatchedInputException m && m.getTargetType() != null) {
+            String expected = expected(m.getTargetType());
+            Matcher f = FOUND.matcher(String.valueOf(m.getOriginalMessage()));
+            String found = f.find() ? found(f.group(1)) : null;
+            return "expected " + expected + (found == null ? "" : ", found " + found);
+        }
+        String msg = String.valueOf(e.getOriginalMessage()).split("\n")[0];
+        int redacted = msg.indexOf(" (start marker at");
+        if (redacted >= 0) msg = msg.substring(0, redacted);
+        return msg.replace("REDACTED (`StreamReadFeature.INCLUDE_SOURCE_IN_LOCATION` disabled)", "the file");
+    }
+
+    private static String expected(Class<?> t) {
+        if (t == double.class || t == Double.class || t == float.class || t == Float.class) return "a number";
+        if (t == int.class || t == Integer.class || t == long.class || t == Long.class) return "a whole number";
+        if (t == boolean.class || t == Boolean.class) return "true or false";
+        if (CharSequence.class.isAssignableFrom(t)) return "text in quotes";
+        if (t.isArray() || java.util.Collection.class.isAssignableFrom(t)) return "a list [ ... ]";
+        return "an object { ... }";
+    }
+
+    private static String found(String shape) {
+        return switch (shape.toLowerCase(java.util.Locale.ROOT)) {
+            case "string" -> "text";
+            case "integer", "floating-point" -> "a number";
+            case "boolean" -> "true or false";
+            case "array" -> "a list";
+            case "object" -> "an object";
+            default -> "null";
+        };
+    }
+
     /** "duplicate key 'x_mm' at line L, column C" for a duplicate-key error, else null. */
     public static String duplicateKey(JsonProcessingException e) {
         if (!(e instanceof JsonParseException)) return null;

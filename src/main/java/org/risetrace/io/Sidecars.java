@@ -52,7 +52,10 @@ public final class Sidecars {
         } catch (JsonProcessingException e) {
             String dup = org.risetrace.frame.StrictJson.duplicateKey(e);
             if (dup != null) throw new InputRejected(file, dup, "give each field once");
-            throw new InputRejected(file, "malformed JSON" + at(e.getLocation()) + ": " + e.getOriginalMessage());
+            String field = e instanceof com.fasterxml.jackson.databind.JsonMappingException m && !m.getPath().isEmpty()
+                    ? " in field '" + pathOf(m) + "'" : "";
+            throw new InputRejected(file, (field.isEmpty() ? "malformed JSON" : "wrong type" + field) + at(e.getLocation())
+                    + ": " + org.risetrace.frame.StrictJson.plainProblem(e));
         } catch (IOException e) {
             throw new InputRejected(file, "cannot read the sidecar file: " + e.getMessage(), null, e);
         }
@@ -62,6 +65,16 @@ public final class Sidecars {
 
     private static String at(JsonLocation loc) {
         return loc == null ? "" : " at line " + loc.getLineNr() + ", column " + loc.getColumnNr();
+    }
+
+    /** The field's path, e.g. injection.start_s or frames.f0001.png.t_s. */
+    private static String pathOf(com.fasterxml.jackson.databind.JsonMappingException e) {
+        StringBuilder sb = new StringBuilder();
+        for (com.fasterxml.jackson.databind.JsonMappingException.Reference r : e.getPath()) {
+            if (r.getFieldName() != null) sb.append(sb.length() == 0 ? "" : ".").append(r.getFieldName());
+            else if (r.getIndex() >= 0) sb.append('[').append(r.getIndex()).append(']');
+        }
+        return sb.toString();
     }
 
     /** Line and column of a field name in JSON text (see {@link JsonFieldLocation}). */

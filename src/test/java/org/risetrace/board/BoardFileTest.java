@@ -10,6 +10,7 @@ import java.nio.file.Path;
 import java.util.Set;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertFalse;
 import static org.junit.jupiter.api.Assertions.assertNull;
 import static org.junit.jupiter.api.Assertions.assertThrows;
 import static org.junit.jupiter.api.Assertions.assertTrue;
@@ -192,6 +193,22 @@ class BoardFileTest {
         Path near = dir.resolve("near.json");
         Files.writeString(near, fixture().replace("{ \"x_mm\": 5.0, \"y_mm\": 5.0", "{ \"x_mm\": 36.5, \"y_mm\": 22.0"));
         assertEquals(1, BoardFile.read(near, MATERIALS).ambient().size());
+    }
+
+    @Test
+    void typeErrorsAndCutFilesAreSaidInPlainWords() throws IOException {
+        // a user reads the message, not the JSON library's internals (a base64 variant, coercion settings, a
+        // redacted source): what was expected and what was found, at the field's line and column
+        InputRejected e = rejected(fixture().replaceFirst("\"size_mm\": \\[[^]]*]", "\"size_mm\": \"100x70\""));
+        assertTrue(e.reason().contains("field 'size_mm'") && e.reason().contains("expected a list [ ... ], found text"),
+                e.getMessage());
+        assertFalse(e.getMessage().contains("base64") || e.getMessage().contains("deserialize"), e.getMessage());
+        e = rejected(fixture().replace("\"x_mm\": 41.5", "\"x_mm\": true"));
+        assertTrue(e.reason().contains("expected a number, found true or false"), e.getMessage());
+        String json = fixture();
+        e = rejected(json.substring(0, json.length() / 2));
+        assertTrue(e.reason().contains("the file ends before the JSON document does"), e.getMessage());
+        assertFalse(e.getMessage().contains("REDACTED") || e.getMessage().contains("StreamReadFeature"), e.getMessage());
     }
 
     @Test

@@ -428,7 +428,7 @@ final class Plots {
         renderer.setSeriesPaint(2, Color.BLACK);
         renderer.setSeriesShape(2, cross(5));
         NumberAxis xAxis = plainAxis("time in the series (s)");
-        NumberAxis yAxis = plainAxis("estimated corner error (px)");
+        NumberAxis yAxis = plainAxis("corner error (px)"); // short: the chart is low, a longer label was cut off
         yAxis.setAutoRangeIncludesZero(true);
         yAxis.setUpperMargin(0.15);
         XYPlot plot = new XYPlot(data, xAxis, yAxis, renderer);

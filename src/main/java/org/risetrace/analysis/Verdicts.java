@@ -169,7 +169,7 @@ public final class Verdicts {
             return new Verdict(VerdictStatus.INCONCLUSIVE, leadRef, leadRate, secondRef, sep,
                     "two parts level: " + leadRef + " (" + rate(lead, unit) + ") and " + secondRef + " (" + rate(second, unit)
                             + ") differ by " + num(sep) + " combined standard errors"
-                            + (paired != null ? String.format(Locale.ROOT, " (rise curves over %.0f s)", paired.windowS()) : "")
+                            + (paired != null ? " (rise curves over " + seconds(paired.windowS()) + " s)" : "")
                             + ", under " + num(o.separationSigma()));
         String weakNote = usedFrames > 0 && weakFrames > o.weakFractionLimit() * usedFrames
                 ? " (registration weak in " + weakFrames + " of " + usedFrames
@@ -177,7 +177,7 @@ public final class Verdicts {
         return new Verdict(VerdictStatus.IDENTIFIED, leadRef, leadRate, secondRef, sep,
                 leadRef + (unit.equals("K") ? " warmed most: " : " heats fastest: ") + rate(lead, unit)
                         + (sep == null ? "" : ", " + num(sep) + " combined standard errors ahead of " + secondRef
-                        + (paired != null ? String.format(Locale.ROOT, " (rise curves over %.0f s)", paired.windowS()) : ""))
+                        + (paired != null ? " (rise curves over " + seconds(paired.windowS()) + " s)" : ""))
                         + weakNote);
     }
 
@@ -268,5 +268,10 @@ public final class Verdicts {
 
     private static String num(double v) {
         return String.format(Locale.ROOT, "%.1f", v);
+    }
+
+    /** A window length in words: whole seconds from 10 s, two significant figures below (0.10, 2.5). */
+    static String seconds(double s) {
+        return s >= 10 ? String.format(Locale.ROOT, "%.0f", s) : String.format(Locale.ROOT, "%.2g", s);
     }
 }

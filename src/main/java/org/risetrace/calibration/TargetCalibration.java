@@ -158,6 +158,18 @@ public final class TargetCalibration {
             if (p.spreadK() > 3 * base.netdK())
                 notes.add(String.format(Locale.ROOT, "target %s is not uniform (spread %.2f K over its pixels):"
                         + " check its region", p.label(), p.spreadK()));
+        // a camera's response drifts by per cent, not by factors: a gain far from the base profile's means regions
+        // and known temperatures that do not belong together (two targets 0.14 K apart by their counts, given as
+        // 30 and 60 degC, gave 213 times the base gain and an exact fit)
+        double gainRatio = gain / base.gain();
+        if (base.gain() > 0 && (gainRatio > GAIN_RATIO_LIMIT || gainRatio < 1 / GAIN_RATIO_LIMIT))
+            notes.add(String.format(Locale.ROOT, "the fitted gain is %.3g times the base profile's (%s): the targets'"
+                    + " counts differ by %.3g K on the base profile where their known temperatures differ by %.3g K;"
+                    + " check each target's region and value", gainRatio, base.name(),
+                    base.gain() * (max(count) - min(count)), highC - lowC));
+        if (n == 2 && model == CalibrationModel.GAIN_OFFSET)
+            notes.add("two targets determine gain and offset exactly: the residuals cannot show an error (add a third"
+                    + " target to check the fit)");
         if (maxAbs(profileResidual) > 3 * base.netdK())
             notes.add(String.format(Locale.ROOT, "residuals up to %.2f K exceed 3 x NETD (%.2f K): check the target"
                     + " regions and known values, or try another model", maxAbs(profileResidual), 3 * base.netdK()));
@@ -174,6 +186,21 @@ public final class TargetCalibration {
         }
         return new CalibrationResult(profile, model, List.copyOf(points), modelC, residual, profileResidual, curve,
                 linearisationK, new double[]{lowC, highC}, List.copyOf(notes));
+    }
+
+    /** A fitted gain beyond this factor of the base profile's (either way) is flagged. */
+    static final double GAIN_RATIO_LIMIT = 2.0;
+
+    private static double max(double[] v) {
+        double m = Double.NEGATIVE_INFINITY;
+        for (double x : v) m = Math.max(m, x);
+        return m;
+    }
+
+    private static double min(double[] v) {
+        double m = Double.POSITIVE_INFINITY;
+        for (double x : v) m = Math.min(m, x);
+        return m;
     }
 
     private static double curveCelsius(SakumaHattori curve, double count, ReferencePoint p) {

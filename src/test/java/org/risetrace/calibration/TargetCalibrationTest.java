@@ -75,6 +75,25 @@ class TargetCalibrationTest {
     }
 
     @Test
+    void aGainFarFromTheBaseProfilesIsFlagged() {
+        // two regions 14 counts (0.14 K on the centikelvin base) apart given as 30 and 60 degC: the fit is exact and
+        // its gain 214 times the base one; a camera's response drifts by per cent (common practice), so the regions
+        // and values do not belong together, and two targets cannot show it in their residuals
+        List<ReferencePoint> pts = List.of(ReferencePoint.of(30315, 30), ReferencePoint.of(30329, 60));
+        CalibrationResult r = TargetCalibration.fit(CENTIKELVIN, pts, CalibrationModel.GAIN_OFFSET, "bad");
+        assertEquals(30.0 / 14 / 0.01, r.profile().gain() / 0.01, 1e-6 * 214);
+        assertTrue(r.notes().stream().anyMatch(n -> n.contains("times the base profile's")
+                && n.contains("differ by 0.140 K on the base profile where their known temperatures differ by 30.0 K")),
+                r.notes().toString());
+        assertTrue(r.notes().stream().anyMatch(n -> n.contains("two targets determine gain and offset exactly")));
+        // a plausible two-point correction (1.5 % gain) is not flagged for its gain
+        List<ReferencePoint> ok = List.of(ReferencePoint.of(miscalibratedCount(40), 40),
+                ReferencePoint.of(miscalibratedCount(60), 60));
+        CalibrationResult good = TargetCalibration.fit(CENTIKELVIN, ok, CalibrationModel.GAIN_OFFSET, "good");
+        assertTrue(good.notes().stream().noneMatch(n -> n.contains("times the base profile's")), good.notes().toString());
+    }
+
+    @Test
     void offsetFitKeepsTheGainAndCentresTheResiduals() {
         List<ReferencePoint> pts = List.of(ReferencePoint.of(miscalibratedCount(40), 40), ReferencePoint.of(miscalibratedCount(60), 60));
         CalibrationResult r = TargetCalibration.fit(CENTIKELVIN, pts, CalibrationModel.OFFSET, "o");

@@ -76,9 +76,10 @@ public record BenchReadings(@JsonProperty("file") String file, @JsonProperty("ro
     }
 
     /**
-     * Assesses readings. Within a group the MAD is floored at a quarter of the coarsest resolution the readings
-     * were written with (the MAD of a uniform rounding error of one step is a quarter step): three identical
-     * readings otherwise give MAD 0 and make any other value infinitely far out.
+     * Assesses readings. Within a group the MAD is floored at a quarter of the typical (median) resolution the
+     * readings were written with (the MAD of a uniform rounding error of one step is a quarter step): three
+     * identical readings otherwise give MAD 0 and make any other value infinitely far out. The median, not the
+     * coarsest: an outlier written with a coarse prefix ("1 kohm" among "1 ohm") set the floor itself and hid.
      */
     public static BenchReadings assess(String file, List<BenchReading> readings) {
         Map<String, List<Integer>> groups = new LinkedHashMap<>();
@@ -87,14 +88,14 @@ public record BenchReadings(@JsonProperty("file") String file, @JsonProperty("ro
         List<String> findings = new ArrayList<>();
         for (List<Integer> members : groups.values()) {
             int n = members.size();
-            double[] base = new double[n];
-            double step = 0;
+            double[] base = new double[n], steps = new double[n];
             for (int k = 0; k < n; k++) {
                 BenchReading r = readings.get(members.get(k));
                 double factor = Units.of(r.unit()).factor();
                 base[k] = r.value() * factor;
-                step = Math.max(step, resolution(r.valueText()) * factor);
+                steps[k] = resolution(r.valueText()) * factor;
             }
+            double step = n == 0 ? 0 : RobustStats.median(steps);
             double median = n >= MIN_GROUP ? RobustStats.median(base) : Double.NaN;
             double mad = n >= MIN_GROUP ? Math.max(RobustStats.mad(base), step / 4) : Double.NaN;
             for (int k = 0; k < n; k++) {

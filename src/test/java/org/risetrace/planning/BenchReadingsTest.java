@@ -82,6 +82,20 @@ class BenchReadingsTest {
     }
 
     @Test
+    void anOutlierWrittenWithACoarsePrefixDoesNotSetTheFloor() {
+        // "1 kohm" among "1 ohm" readings is the same value as "1000 ohm": by hand MAD of 1, 1, 1000 (ohm) is 0,
+        // floored at a quarter of the typical 1 ohm step, 0.25; modified z = 0.6745 x 999 / 0.25 = 2695.3. With the
+        // coarsest step (1 kohm) as the floor it read 2.7 and hid
+        for (String[] w : new String[][]{{"1000", "ohm"}, {"1", "kohm"}}) {
+            BenchReadings b = BenchReadings.assess("r", List.of(reading("rail to ground", "A", "1", "ohm", null, null),
+                    reading("rail to ground", "B", "1", "ohm", null, null),
+                    reading("rail to ground", "C", w[0], w[1], null, null)));
+            assertEquals(List.of("C"), b.outliers().stream().map(BenchReadings.Row::where).toList(), w[1]);
+            assertEquals(2695.3, b.rows().get(2).modifiedZ(), 0.05, w[1]);
+        }
+    }
+
+    @Test
     void likeReadingsAreComparedInTheBaseUnitAndOtherKindsApart() {
         List<BenchReading> l = new ArrayList<>(List.of(
                 reading("phase inductor", "L1", "150", "mohm", 100e3, null),

@@ -78,7 +78,8 @@ public final class RegisterCommand implements Callable<Integer> {
         } catch (IllegalArgumentException e) {
             throw new picocli.CommandLine.ParameterException(spec.commandLine(), e.getMessage());
         }
-        RegistrationReport report = SeriesRegistration.run(board, reference, series, config,
+        RegistrationReport report = SeriesRegistration.run(board, reference, series.size(), series::read,
+                series::fileName, series::tSeconds, config,
                 writeRectified ? dir.resolve("rectified") : null, pxPerMm);
         Path file = dir.resolve(SeriesRegistration.FILE_NAME);
         SeriesRegistration.write(report, file);

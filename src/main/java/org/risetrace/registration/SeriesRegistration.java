@@ -29,11 +29,22 @@ public final class SeriesRegistration {
     }
 
     /**
-     * @param frames       every frame of the series in order (the reference among them)
+     * Registers every frame of a series in order (the reference among them). Frame i is read only when it is
+     * registered: a frame that cannot be read (cut short, damaged) is recorded as failed with the reader's reason
+     * and the others are registered, as the analysis leaves such a frame out (before, one damaged frame ended the
+     * whole run).
+     *
+     * @param count        how many frames
+     * @param read         frame i (may throw InputRejected)
+     * @param names        frame i's file name
+     * @param times        frame i's time in the series, s
      * @param rectifiedDir where rectified frames go (same file name, .png), or null for none
      * @param pxPerMm      resolution of the rectified frames; 0 or less: {@link Rectifier#defaultPxPerMm}
      */
-    public static RegistrationReport run(Board board, Frame reference, Iterable<Frame> frames,
+    public static RegistrationReport run(Board board, Frame reference, int count,
+                                         java.util.function.IntFunction<Frame> read,
+                                         java.util.function.IntFunction<String> names,
+                                         java.util.function.IntToDoubleFunction times,
                                          RegistrationConfig config, Path rectifiedDir, double pxPerMm) {
         Registrar registrar = Registrars.create(reference, board, config);
         Rectifier rectifier = null;
@@ -46,7 +57,15 @@ public final class SeriesRegistration {
             }
         }
         List<FrameRegistration> results = new ArrayList<>();
-        for (Frame f : frames) {
+        for (int i = 0; i < count; i++) {
+            Frame f;
+            try {
+                f = read.apply(i);
+            } catch (InputRejected e) {
+                results.add(new FrameRegistration(names.apply(i), times.applyAsDouble(i), RegistrationStatus.FAILED,
+                        "cannot be read: " + e.reason(), null, null, 0, Double.NaN, Double.NaN));
+                continue;
+            }
             FrameRegistration r = registrar.register(f);
             results.add(r);
             if (rectifier != null && r.status().usable()) {

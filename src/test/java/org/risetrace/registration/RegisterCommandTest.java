@@ -76,6 +76,18 @@ class RegisterCommandTest {
         assertEquals(Math.round(scene.heightMm * 1.5), rect.getHeight());
         assertTrue(Files.notExists(dir.resolve("rectified/frame_5.png")), "no rectified image of a failed frame");
 
+        // a frame cut short is recorded as failed with the reader's reason, and the others are registered (as the
+        // analysis leaves such a frame out; before, it ended the whole run)
+        byte[] whole = Files.readAllBytes(dir.resolve("frame_3.png"));
+        Files.write(dir.resolve("frame_3.png"), java.util.Arrays.copyOf(whole, whole.length / 2));
+        assertEquals(0, Main.run("register", dir.toString(), "--out", dir.resolve("cut").toString()));
+        RegistrationReport cut = SeriesRegistration.read(dir.resolve("cut/registration.json"));
+        assertEquals(6, cut.frames().size());
+        assertEquals(RegistrationStatus.FAILED, cut.frames().get(3).status());
+        assertTrue(cut.frames().get(3).reason().startsWith("cannot be read: "), cut.frames().get(3).reason());
+        assertEquals(RegistrationStatus.OK, cut.frames().get(2).status(), cut.frames().get(2).reason());
+        Files.write(dir.resolve("frame_3.png"), whole);
+
         // a second run does not replace the first one's registration.json unasked (common practice: never
         // overwrite a file the user did not ask to replace; it may be the only record of a run, or edited)
         Files.writeString(dir.resolve("registration.json"), "{\"mine\": true}");

@@ -216,7 +216,8 @@ class WorkbenchBrowserTest {
         assertEquals("Q4", saved.partsOrEmpty().get(1).ref());
         // the saved board registers the series: every frame usable (the registration stage's own run)
         Series series = Series.open(root.resolve("phase-short"));
-        RegistrationReport reg = SeriesRegistration.run(saved, series.read(0), series, RegistrationConfig.defaults(), null, 0);
+        RegistrationReport reg = SeriesRegistration.run(saved, series.read(0), series.size(), series::read, series::fileName,
+                series::tSeconds, RegistrationConfig.defaults(), null, 0);
         assertEquals(90, reg.summary().frames());
         assertEquals(0, reg.summary().failed(), reg.summary().toString());
 

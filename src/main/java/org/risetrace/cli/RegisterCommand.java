@@ -62,7 +62,10 @@ public final class RegisterCommand implements Callable<Integer> {
         if (refIndex < 0)
             throw new InputRejected(bf, "reference frame '" + board.outline().frame() + "' (outline.frame) is not in "
                     + folder, "name one of the series' frame files");
-        if (writeRectified && pxPerMm > 0) org.risetrace.analysis.MemoryBudget.boardRasterPixels(board, pxPerMm, bf);
+        if (writeRectified && pxPerMm > 0) { // as analyze: a raster too coarse for any part is refused
+            org.risetrace.analysis.MemoryBudget.requireResolvesParts(board, pxPerMm, bf);
+            org.risetrace.analysis.MemoryBudget.boardRasterPixels(board, pxPerMm, bf);
+        }
         Frame reference = series.read(refIndex);
         Path dir = out != null ? out : folder;
         // an earlier registration.json (perhaps edited, perhaps the only record of a run) is not replaced unasked

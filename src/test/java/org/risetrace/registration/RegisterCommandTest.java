@@ -88,6 +88,11 @@ class RegisterCommandTest {
         assertEquals(RegistrationStatus.OK, cut.frames().get(2).status(), cut.frames().get(2).reason());
         Files.write(dir.resolve("frame_3.png"), whole);
 
+        // rectified frames too coarse to hold any part are refused, as analyze refuses them (they were 1 x 1 px)
+        assertEquals(1, Main.run("register", dir.toString(), "--out", dir.resolve("coarse").toString(),
+                "--write-rectified", "--px-per-mm", "0.001"));
+        assertTrue(Files.notExists(dir.resolve("coarse/rectified")), "nothing written");
+
         // a second run does not replace the first one's registration.json unasked (common practice: never
         // overwrite a file the user did not ask to replace; it may be the only record of a run, or edited)
         Files.writeString(dir.resolve("registration.json"), "{\"mine\": true}");

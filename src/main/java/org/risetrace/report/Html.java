@@ -42,6 +42,13 @@ public final class Html {
         return s.startsWith("-") ? "\u2212" + s.substring(1) : s;
     }
 
+    /** A value a user typed (a supply's volts), as short as it was: 0.4 stays 0.4; a dash when absent. */
+    static String asGiven(Double v) {
+        if (v == null || !Double.isFinite(v)) return "\u2013";
+        String s = BigDecimal.valueOf(v).stripTrailingZeros().toPlainString();
+        return s.startsWith("-") ? "\u2212" + s.substring(1) : s;
+    }
+
     /** A value with a fixed number of decimals; a dash when absent or not finite. */
     static String fixed(Double v, int decimals) {
         if (v == null || !Double.isFinite(v)) return "\u2013";

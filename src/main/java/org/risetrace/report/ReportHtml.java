@@ -269,7 +269,7 @@ public final class ReportHtml {
             h.append("<table class=\"ranking\">\n<thead><tr><th>#</th><th>part</th>");
             if (!comparison) h.append("<th>initial rate (K/s)").append(esc(rateWindowWords(r))).append("</th>");
             h.append("<th>rise (K)</th>");
-            if (!comparison) h.append("<th>onset (s)</th><th>\u03c4 (s)</th><th>\u0394T\u221e (K)</th><th>fit RMS (K)</th>");
+            if (!comparison) h.append("<th>onset (s in the series)</th><th>\u03c4 (s)</th><th>\u0394T\u221e (K)</th><th>fit RMS (K)</th>");
             h.append("<th>noise (K)</th><th>in frame</th><th>emissivity</th><th>warnings</th></tr></thead>\n<tbody>\n");
             String leader = v == null ? null : v.ref();
             for (PartResult p : ranked) {
@@ -301,7 +301,7 @@ public final class ReportHtml {
             h.append("<p class=\"blank\">No local maximum of the rise map stands above the noise.</p>\n");
         } else {
             h.append("<table class=\"hotspots\">\n<thead><tr><th>#</th><th>x (mm)</th><th>y (mm)</th>")
-                    .append("<th>rise (K)</th><th>on part</th></tr></thead>\n<tbody>\n");
+                    .append("<th>peak rise (K)</th><th>on part</th></tr></thead>\n<tbody>\n");
             for (int k = 0; k < hotspots.size(); k++) {
                 Hotspot s = hotspots.get(k);
                 h.append(s.ref() == null ? "<tr class=\"unmarked-row\">" : "<tr>").append("<td>#").append(k + 1)
@@ -311,7 +311,9 @@ public final class ReportHtml {
                                 : "<span class=\"ref\">" + esc(s.ref()) + "</span>")
                         .append("</td></tr>\n");
             }
-            h.append("</tbody></table>\n");
+            h.append("</tbody></table>\n<p class=\"caption\">Peak rise: the highest point of the smoothed rise map"
+                    + " near the spot. The ranking's rise is each part's footprint statistic (its 95th percentile) at the"
+                    + " end, so a part's two numbers differ.</p>\n");
         }
         h.append("</section>\n");
 
@@ -324,8 +326,8 @@ public final class ReportHtml {
             h.append("<dl class=\"facts\">\n");
             fact(h, "Positive lead on", inj.fromRail());
             fact(h, "Negative lead on", inj.toRail());
-            fact(h, "Supply voltage", inj.volts() == null ? null : sig(inj.volts(), 4) + " V");
-            fact(h, "Current limit", inj.currentLimitA() == null ? null : sig(inj.currentLimitA(), 4) + " A");
+            fact(h, "Supply voltage", inj.volts() == null ? null : Html.asGiven(inj.volts()) + " V");
+            fact(h, "Current limit", inj.currentLimitA() == null ? null : Html.asGiven(inj.currentLimitA()) + " A");
             fact(h, "Injection start", inj.startS() == null ? null : fixed(inj.startS(), 1) + " s into the series");
             fact(h, "Supply", inj.supply());
             fact(h, "Notes", inj.notes());
@@ -659,7 +661,7 @@ public final class ReportHtml {
             ".safety p { margin: 0; }",
             "figure { margin: 14px 0 18px; }",
             "figure img { display: block; max-width: 100%; height: auto; border: 1px solid var(--rule); }",
-            "figcaption { color: var(--muted); font-size: 13px; margin-top: 4px; }",
+            "figcaption, p.caption { color: var(--muted); font-size: 13px; margin-top: 4px; }",
             "table { border-collapse: collapse; width: 100%; font-size: 13px; }",
             "th, td { padding: 4px 6px; border-bottom: 1px solid var(--rule); text-align: left; vertical-align: top; }",
             "thead th { background: var(--tint); font-weight: bold; }",

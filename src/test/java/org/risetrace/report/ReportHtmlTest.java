@@ -280,6 +280,11 @@ class ReportHtmlTest {
                 r.hotspots(), r.frames()), a.board(), a.curves(), a.riseMap(), a.onsetMap(), a.lastFrame()), null);
         assertTrue(page.contains("<th>zz_ratio</th><td>2.397</td>"), "four significant figures");
         assertTrue(page.contains("<th>zz_none</th><td>\u2013</td>"), "a dash, not null");
+        // what a user typed into series.json is shown as typed, not padded to four figures ("0.4000 V")
+        assertEquals("0.4", Html.asGiven(0.4));
+        assertEquals("3", Html.asGiven(3.0));
+        assertEquals("\u22121.5", Html.asGiven(-1.50));
+        assertEquals("0.125", Html.asGiven(0.125));
     }
 
     private static Analysis withVerdict(Analysis a, Verdict v) {

@@ -80,7 +80,15 @@ class LockInDemoTest {
 
     /** A copy of a simulated series whose series.json has no period (the injection's timing is not recorded). */
     static Path withoutPeriod(Path series, Path dir) throws IOException {
-        Path s = dir.resolve("no-period");
+        return withInjection(series, dir.resolve("no-period"), injection -> {
+            injection.remove("period_s");
+            injection.remove("on_s");
+        });
+    }
+
+    /** A copy of a simulated series (frames, board) with its series.json's injection record changed. */
+    static Path withInjection(Path series, Path s, java.util.function.Consumer<com.fasterxml.jackson.databind.node.ObjectNode> change)
+            throws IOException {
         Files.createDirectories(s);
         try (var files = Files.list(series)) {
             for (Path f : (Iterable<Path>) files::iterator)
@@ -90,10 +98,7 @@ class LockInDemoTest {
         ObjectMapper json = new ObjectMapper();
         com.fasterxml.jackson.databind.node.ObjectNode sidecar =
                 (com.fasterxml.jackson.databind.node.ObjectNode) json.readTree(series.resolve("series.json").toFile());
-        com.fasterxml.jackson.databind.node.ObjectNode injection =
-                (com.fasterxml.jackson.databind.node.ObjectNode) sidecar.get("injection");
-        injection.remove("period_s");
-        injection.remove("on_s");
+        change.accept((com.fasterxml.jackson.databind.node.ObjectNode) sidecar.get("injection"));
         json.writeValue(s.resolve("series.json").toFile(), sidecar);
         return s;
     }
@@ -157,21 +162,10 @@ class LockInDemoTest {
         // frames every 0.5 s and a 1 s period: two frames a period, the Nyquist limit, where the fundamental's
         // quadrature part cannot be seen (sampling theorem; the fit gave amplitudes of 1e12 K); the README asks for
         // at least 4 frames a period
-        Path s = dir.resolve("fast");
-        Files.createDirectories(s);
-        try (var files = Files.list(SERIES)) {
-            for (Path f : (Iterable<Path>) files::iterator)
-                if (f.getFileName().toString().endsWith(".png") || f.getFileName().toString().equals("board.json"))
-                    Files.copy(f, s.resolve(f.getFileName()));
-        }
-        ObjectMapper json = new ObjectMapper();
-        com.fasterxml.jackson.databind.node.ObjectNode sidecar =
-                (com.fasterxml.jackson.databind.node.ObjectNode) json.readTree(SERIES.resolve("series.json").toFile());
-        com.fasterxml.jackson.databind.node.ObjectNode injection =
-                (com.fasterxml.jackson.databind.node.ObjectNode) sidecar.get("injection");
-        injection.put("period_s", 1.0);
-        injection.put("on_s", 0.5);
-        json.writeValue(s.resolve("series.json").toFile(), sidecar);
+        Path s = withInjection(SERIES, dir.resolve("fast"), injection -> {
+            injection.put("period_s", 1.0);
+            injection.put("on_s", 0.5);
+        });
         InspectCommandTest.Result r = InspectCommandTest.run("analyze", s.toString(), "--out", dir.resolve("o").toString());
         assertEquals(Main.EXIT_INPUT_REJECTED, r.code(), r.out());
         assertTrue(r.err().contains("holds 2 frames") && r.err().contains("lock-in needs at least 4 a period"), r.err());

@@ -96,12 +96,67 @@ public final class Archive implements AutoCloseable {
         this.who = who;
     }
 
-    /** Opens (creating when new) the archive; {@code who} names the person for the custody log. */
+    /**
+     * Opens the archive, creating it when the folder does not exist or is empty: for {@code case create},
+     * {@code case import} and the workbench (which opens the archive named at its start). A folder that holds
+     * other things and no archive is refused: a mistyped path must not turn a user's folder into an archive.
+     * {@code who} names the person for the custody log. Every other command uses {@link #openExisting}.
+     */
     public static Archive open(ArchiveSettings settings, String who) {
         if (who == null || who.isBlank()) throw new IllegalArgumentException("who");
-        Path folder = settings.folder();
+        Path folder = checkedFolder(settings);
         if (Files.exists(folder) && !Files.isDirectory(folder))
             throw new ArchiveException(folder, "not a folder", "name the archive folder with --archive");
+        if (!exists(folder) && !emptyOrUnfinished(folder))
+            throw new ArchiveException(folder, "this folder holds other files and no archive",
+                    "name an empty or new folder for the archive with --archive");
+        return openFolder(settings, who);
+    }
+
+    /**
+     * Opens an archive that exists (its folder holds {@value #MARKER_FILE}); creates nothing. Refused with "no
+     * archive at FOLDER" otherwise, so a mistyped path is said, not taken for an empty archive.
+     */
+    public static Archive openExisting(ArchiveSettings settings, String who) {
+        if (who == null || who.isBlank()) throw new IllegalArgumentException("who");
+        Path folder = checkedFolder(settings);
+        if (!exists(folder))
+            throw new ArchiveException(null, "no archive at " + folder, (emptyOrUnfinished(folder)
+                    ? "'risetrace case create --archive " + folder + "' creates one there; or name yours"
+                    : "the folder holds other files; name the archive folder") + " with --archive or $"
+                    + ArchiveSettings.ENV_ARCHIVE);
+        return openFolder(settings, who);
+    }
+
+    /** Whether {@code folder} holds an archive (its marker file, written when the archive was created). */
+    public static boolean exists(Path folder) {
+        return Files.isRegularFile(folder.resolve(MARKER_FILE), LinkOption.NOFOLLOW_LINKS);
+    }
+
+    private static Path checkedFolder(ArchiveSettings settings) {
+        Path folder = settings.folder();
+        // an empty name would put the index and files/ into the working folder
+        if (folder == null || folder.toString().isBlank())
+            throw new ArchiveException(null, "the archive folder is named by an empty path", "name it with --archive DIR");
+        return folder;
+    }
+
+    /**
+     * A folder an archive may be created in: none yet, empty, or holding only what an archive's own first opening
+     * leaves before its marker is written (a kill at that moment, or another bench creating the same shared folder).
+     */
+    private static boolean emptyOrUnfinished(Path folder) {
+        if (!Files.exists(folder, LinkOption.NOFOLLOW_LINKS)) return true;
+        try (var s = Files.list(folder)) {
+            return s.map(p -> p.getFileName().toString()).allMatch(n -> n.equals(ContentStore.FILES)
+                    || n.equals(ContentStore.TMP) || n.startsWith(Index.SQLITE_FILE) || n.startsWith(".write-"));
+        } catch (IOException e) {
+            throw new ArchiveException(folder, "cannot list the folder: " + e.getMessage());
+        }
+    }
+
+    private static Archive openFolder(ArchiveSettings settings, String who) {
+        Path folder = settings.folder();
         try {
             Files.createDirectories(folder);
         } catch (IOException e) {
@@ -166,14 +221,14 @@ public final class Archive implements AutoCloseable {
     }
 
     static void writeAtomically(Path file, String text) throws IOException {
-        Path t = Files.createTempFile(file.getParent(), ".write-", ".part");
+        Path t = Files.createTempFile(file.toAbsolutePath().getParent(), ".write-", ".part");
         try {
             try (FileChannel ch = FileChannel.open(t, StandardOpenOption.WRITE)) {
                 ch.write(java.nio.ByteBuffer.wrap(text.getBytes(StandardCharsets.UTF_8)));
                 ch.force(true);
             }
             Files.move(t, file, StandardCopyOption.ATOMIC_MOVE, StandardCopyOption.REPLACE_EXISTING);
-            ContentStore.forceFolder(file.getParent());
+            ContentStore.forceFolder(file.toAbsolutePath().getParent());
         } finally {
             Files.deleteIfExists(t);
         }
@@ -677,6 +732,15 @@ public final class Archive implements AutoCloseable {
     /** Stores a made file and records it as an output of the case (and of an analysis when non-null), logged. */
     OutputRecord recordOutput(Connection c, String caseNumber, Long analysisId, String kind, String name,
                               ContentStore.Stored st, boolean log) throws SQLException {
+        return recordOutput(c, caseNumber, analysisId, kind, name, st, null, log ? kind : null, name);
+    }
+
+    /**
+     * As above, with the time it was made ({@code madeAt}; null: now) and the custody action and detail to log
+     * (action null: not logged): an import keeps an output's own date and logs it as imported, not as made now.
+     */
+    OutputRecord recordOutput(Connection c, String caseNumber, Long analysisId, String kind, String name,
+                              ContentStore.Stored st, String madeAt, String action, String detail) throws SQLException {
         long id = Index.next(c, "outputs", "id");
         try (PreparedStatement ps = c.prepareStatement("INSERT INTO outputs (id, case_number, analysis_id, kind, name, "
                 + "sha256, size_bytes, made_at) VALUES (?, ?, ?, ?, ?, ?, ?, ?)")) {
@@ -688,12 +752,12 @@ public final class Archive implements AutoCloseable {
             ps.setString(5, name);
             ps.setString(6, st.sha256());
             ps.setLong(7, st.sizeBytes());
-            ps.setString(8, Index.now());
+            ps.setString(8, madeAt != null ? madeAt : Index.now());
             ps.executeUpdate();
         }
-        if (log) {
+        if (action != null) {
             String subject = Digests.outputSubject(id);
-            Custody.append(c, who, kind, caseNumber, subject, st.sha256(), Digests.of(c, subject), name);
+            Custody.append(c, who, action, caseNumber, subject, st.sha256(), Digests.of(c, subject), detail);
         }
         return outputs(c, "id = ?", id).get(0);
     }

@@ -337,6 +337,21 @@ public final class BagImport {
             if (!Archive.plainName(name))
                 throw new ArchiveException(bag, "data/case.json: file name '" + name + "' is not a plain file name");
         }
+        // the dates kept as they were: each must be a time as the archive writes them, so listings sort it as time
+        List<JsonNode> dated = new ArrayList<>(List.of(c));
+        r.path("series").forEach(dated::add);
+        r.path("documents").forEach(dated::add);
+        for (JsonNode an : r.path("analyses")) {
+            dated.add(an);
+            an.path("outputs").forEach(dated::add);
+        }
+        for (JsonNode n : dated)
+            for (String field : new String[]{"openedAt", "closedAt", "addedAt", "analysedAt", "madeAt"}) {
+                String t = text(n, field);
+                if (t != null && !isTime(t))
+                    throw new ArchiveException(bag, "data/case.json: " + field + " '" + t + "' is not a time",
+                            "an ISO-8601 UTC time such as 2026-12-03T07:17:49.415Z");
+            }
         if (a.index.read(conn -> Archive.caseRow(conn, caseNumber)) != null)
             throw new ArchiveException(bag, "case " + caseNumber + " is in this archive already",
                     "'risetrace case verify " + caseNumber + "' checks the one there");
@@ -403,7 +418,8 @@ public final class BagImport {
                 }
                 for (JsonNode o : an.path("outputs")) {
                     a.recordOutput(conn, caseNumber, id, o.path("kind").asText("analysis-output"), o.path("name").asText(),
-                            new ContentStore.Stored(o.path("sha256").asText(), o.path("sizeBytes").asLong(), false), false);
+                            new ContentStore.Stored(o.path("sha256").asText(), o.path("sizeBytes").asLong(), false),
+                            text(o, "madeAt"), null, null);
                     files++;
                 }
                 String subject = Digests.analysisSubject(id);
@@ -412,13 +428,26 @@ public final class BagImport {
                 analyses++;
             }
             for (JsonNode o : r.path("documents")) {
+                // the document keeps the date it was made and is logged as imported (README: an imported case keeps
+                // its records as they were), not as a customer report made at the moment of import
                 a.recordOutput(conn, caseNumber, null, o.path("kind").asText("document"), o.path("name").asText(),
-                        new ContentStore.Stored(o.path("sha256").asText(), o.path("sizeBytes").asLong(), false), true);
+                        new ContentStore.Stored(o.path("sha256").asText(), o.path("sizeBytes").asLong(), false),
+                        text(o, "madeAt"), "import-document", detail + " (" + o.path("kind").asText("document") + " "
+                                + o.path("name").asText() + ", document " + o.path("id").asText() + " there)");
                 files++;
             }
             a.recordOutput(conn, caseNumber, null, "imported-case-record", "case.json from " + bag.getFileName(), record, true);
             return new Result(caseNumber, r.path("series").size(), analyses, files, totalBytes);
         });
+    }
+
+    private static boolean isTime(String t) {
+        try {
+            java.time.Instant.parse(t);
+            return t.length() <= 40;
+        } catch (java.time.format.DateTimeParseException e) {
+            return false;
+        }
     }
 
     private static String text(JsonNode n, String field) {

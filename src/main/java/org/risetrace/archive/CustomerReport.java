@@ -40,13 +40,21 @@ public final class CustomerReport {
 
     /** Makes, stores and logs the report; returns its record and its text. */
     public static Made make(Archive a, String caseNumber, Shop shop, Paper paper) {
-        Archive.CaseDetail d = a.show(caseNumber);
-        String html = html(a, d, shop, paper);
+        String html = render(a, caseNumber, shop, paper);
+        return new Made(store(a, caseNumber, html), html);
+    }
+
+    /** The report's page; nothing is stored or logged (the CLI writes the file first, then {@link #store}s it). */
+    public static String render(Archive a, String caseNumber, Shop shop, Paper paper) {
+        return html(a, a.show(caseNumber), shop, paper);
+    }
+
+    /** Stores a page made by {@link #render} with the case, as a document, and logs it. */
+    public static Archive.OutputRecord store(Archive a, String caseNumber, String html) {
         byte[] bytes = html.getBytes(StandardCharsets.UTF_8);
         try {
             ContentStore.Stored st = a.store.put(new java.io.ByteArrayInputStream(bytes), null, null);
-            Archive.OutputRecord rec = a.index.write(c -> a.recordOutput(c, caseNumber, null, "customer-report", FILE_NAME, st, true));
-            return new Made(rec, html);
+            return a.index.write(c -> a.recordOutput(c, caseNumber, null, "customer-report", FILE_NAME, st, true));
         } catch (IOException e) {
             throw new ArchiveException(a.settings.folder(), "cannot store the customer report: " + e.getMessage(), null, e);
         }

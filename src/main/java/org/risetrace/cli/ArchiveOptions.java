@@ -2,6 +2,7 @@ package org.risetrace.cli;
 
 import org.risetrace.archive.Archive;
 import org.risetrace.archive.ArchiveSettings;
+import picocli.CommandLine;
 import picocli.CommandLine.Option;
 
 import java.nio.file.Path;
@@ -28,9 +29,32 @@ public final class ArchiveOptions {
             description = "who does this, for the custody log (default: $RISETRACE_TECHNICIAN, else the login name)")
     String by;
 
+    /** The command this is mixed into, for usage errors. */
+    @CommandLine.Spec(CommandLine.Spec.Target.MIXEE)
+    CommandLine.Model.CommandSpec mixee;
+
+    /** Opens the archive that exists; refuses "no archive at ..." (exit 1) and creates nothing. */
     Archive open() {
-        ArchiveSettings s = ArchiveSettings.resolve(folder, db, dbConfig, System.getenv());
-        return Archive.open(s, who());
+        return Archive.openExisting(settings(), who());
+    }
+
+    /** Opens the archive, creating it in a new or empty folder: for {@code case create} and {@code case import} only. */
+    Archive openOrCreate() {
+        return Archive.open(settings(), who());
+    }
+
+    private ArchiveSettings settings() {
+        // --archive '' would be the working folder: a usage error (exit 2), not an archive made there
+        if (folder != null && folder.toString().isBlank())
+            throw new CommandLine.ParameterException(mixee.commandLine(), "--archive names no folder (an empty value)");
+        return ArchiveSettings.resolve(folder, db, dbConfig, System.getenv());
+    }
+
+    /** Refuses an empty path argument ({@code ''}) as a usage error: it would name the working folder. */
+    static Path named(CommandLine.Model.CommandSpec spec, Path p, String what) {
+        if (p != null && p.toString().isBlank())
+            throw new CommandLine.ParameterException(spec.commandLine(), what + " names no file or folder (an empty value)");
+        return p;
     }
 
     String who() {

@@ -30,6 +30,8 @@ public final class CaseAddSeriesCommand implements Callable<Integer> {
 
     @Override
     public Integer call() {
+        ArchiveOptions.named(spec, folder, "<series-folder>");
+        ArchiveOptions.named(spec, board, "--board");
         try (Archive a = archive.open()) {
             Archive.Added added = a.addSeries(number, folder, name, board);
             PrintWriter o = spec.commandLine().getOut();

@@ -30,7 +30,7 @@ public final class CaseCreateCommand implements Callable<Integer> {
 
     @Override
     public Integer call() {
-        try (Archive a = archive.open()) {
+        try (Archive a = archive.openOrCreate()) {
             Archive.CaseRecord r = a.createCase(new Archive.NewCase(number, customer, device, serial, fault, technician));
             spec.commandLine().getOut().println(r.caseNumber());
         }

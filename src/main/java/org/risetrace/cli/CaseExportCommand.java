@@ -25,6 +25,7 @@ public final class CaseExportCommand implements Callable<Integer> {
 
     @Override
     public Integer call() {
+        ArchiveOptions.named(spec, target, "<bag>"); // '' is the working folder: "exists already" said nothing useful
         try (Archive a = archive.open()) {
             BagExport.Result r = BagExport.export(a, number, target, "risetrace " + VersionProvider.version());
             spec.commandLine().getOut().println(number + ": bag " + r.target() + " (" + r.payloadFiles() + " payload files, "

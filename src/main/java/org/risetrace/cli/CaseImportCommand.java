@@ -31,7 +31,11 @@ public final class CaseImportCommand implements Callable<Integer> {
     public Integer call() {
         if (maxFiles < 1 || maxBytes < 1)
             throw new CommandLine.ParameterException(spec.commandLine(), "--max-files and --max-bytes must be positive");
-        try (Archive a = archive.open()) {
+        ArchiveOptions.named(spec, bag, "<bag>");
+        // a missing bag is said before a new archive is created for it
+        if (!java.nio.file.Files.exists(bag, java.nio.file.LinkOption.NOFOLLOW_LINKS))
+            throw new org.risetrace.frame.InputRejected(bag, "bag not found", "name the bag folder or .zip file");
+        try (Archive a = archive.openOrCreate()) {
             BagImport.Result r = BagImport.importBag(a, bag, new BagImport.Limits(maxFiles, maxBytes));
             spec.commandLine().getOut().println(r.caseNumber() + ": imported from " + bag + " (" + r.series() + " series, "
                     + r.analyses() + " analyses, " + r.files() + " files, " + r.bytes() + " bytes)");

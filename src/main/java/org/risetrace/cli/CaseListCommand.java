@@ -38,12 +38,21 @@ public class CaseListCommand implements Callable<Integer> {
         if (status != null && !Archive.STATUSES.contains(status))
             throw new CommandLine.ParameterException(spec.commandLine(), "--status must be one of " + Archive.STATUSES);
         if (limit < 1) throw new CommandLine.ParameterException(spec.commandLine(), "--limit must be at least 1");
-        Archive.CaseQuery q = new Archive.CaseQuery(status, from == null ? null : Archive.date(from, "--from"),
-                to == null ? null : Archive.date(to, "--to"), text(), limit);
+        Archive.CaseQuery q = new Archive.CaseQuery(status, day(from, "--from"), day(to, "--to"), text(), limit);
         try (Archive a = archive.open()) {
             print(spec.commandLine().getOut(), a.listCases(q));
         }
         return Main.EXIT_OK;
+    }
+
+    /** A day typed as YYYY-MM-DD; anything else is an option out of range (exit 2), as --status is. */
+    private java.time.LocalDate day(String value, String option) {
+        if (value == null) return null;
+        try {
+            return Archive.date(value, option);
+        } catch (org.risetrace.archive.ArchiveException e) {
+            throw new CommandLine.ParameterException(spec.commandLine(), e.getMessage());
+        }
     }
 
     static void print(PrintWriter o, List<Archive.CaseRecord> cases) {

@@ -300,6 +300,39 @@ class ArchiveStoreTest {
         assertTrue(e.getMessage().contains("another index"), e.getMessage());
     }
 
+    @Test
+    void onlyOpenCreatesAnArchiveAndNeverInAFolderOfOtherFiles() throws Exception {
+        Path typo = tmp.resolve("typo");
+        ArchiveException e = assertThrows(ArchiveException.class, () -> Archive.openExisting(ArchiveSettings.sqlite(typo), "tess"));
+        // a mistyped path is said, not taken for an empty archive
+        assertTrue(e.getMessage().startsWith("no archive at " + typo), e.getMessage());
+        // and nothing is created for it
+        assertFalse(Files.exists(typo));
+        Path mine = Files.createDirectories(tmp.resolve("mine"));
+        Files.writeString(mine.resolve("keep.txt"), "the user's own");
+        e = assertThrows(ArchiveException.class, () -> Archive.openExisting(ArchiveSettings.sqlite(mine), "tess"));
+        assertTrue(e.getMessage().startsWith("no archive at " + mine), e.getMessage());
+        e = assertThrows(ArchiveException.class, () -> Archive.open(ArchiveSettings.sqlite(mine), "tess"));
+        // the create-if-missing entry point (case create, import, the workbench) never fills a user's folder
+        assertTrue(e.getMessage().contains("holds other files and no archive"), e.getMessage());
+        try (var list = Files.list(mine)) {
+            // the user's folder as it was
+            assertEquals(List.of(mine.resolve("keep.txt")), list.toList());
+        }
+        e = assertThrows(ArchiveException.class, () -> Archive.open(ArchiveSettings.sqlite(Path.of("")), "tess"));
+        // an empty path would have put the index into the working folder
+        assertTrue(e.getMessage().contains("empty path"), e.getMessage());
+        Archive.open(ArchiveSettings.sqlite(typo), "tess").close();
+        // once created, it is an archive and opens as one
+        assertTrue(Archive.exists(typo));
+        Archive.openExisting(ArchiveSettings.sqlite(typo), "tess").close();
+        // a first opening killed before its marker left only the archive's own entries: it may be created there
+        Path unfinished = Files.createDirectories(tmp.resolve("unfinished").resolve(ContentStore.FILES));
+        Files.createDirectories(unfinished.resolveSibling(ContentStore.TMP));
+        Archive.open(ArchiveSettings.sqlite(unfinished.getParent()), "tess").close();
+        assertTrue(Archive.exists(unfinished.getParent()));
+    }
+
     private static Set<String> numbers(List<Archive.CaseRecord> cases) {
         Set<String> s = new HashSet<>();
         for (Archive.CaseRecord r : cases) s.add(r.caseNumber());

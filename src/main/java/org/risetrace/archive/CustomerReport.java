@@ -102,7 +102,7 @@ public final class CustomerReport {
             String injection = injectionWords(s.injection());
             h.append("<p class=\"how\">").append(frames).append(" thermal images taken ")
                     .append(injection == null ? "while the board was powered for the test" : esc(injection))
-                    .append(", recorded ").append(esc(s.addedAt().substring(0, 10))).append(".</p>\n");
+                    .append("; added to this case on ").append(esc(s.addedAt().substring(0, 10))).append(".</p>\n");
             if (an == null) {
                 h.append("<p>Not analysed yet.</p>\n</div>\n");
                 continue;
@@ -139,10 +139,17 @@ public final class CustomerReport {
     /** The finding as a customer reads it. */
     static String plainWords(Archive.AnalysisRecord an) {
         String status = an.verdictStatus() == null ? "" : an.verdictStatus().toLowerCase(Locale.ROOT);
-        if (status.startsWith("identified") && an.verdictRef() != null)
-            return "The part marked " + an.verdictRef() + " warmed up faster than every other part while a limited "
-                    + "current was fed into the board. That points to " + an.verdictRef()
+        if (status.startsWith("identified") && an.verdictRef() != null) {
+            String what = switch (an.mode() == null ? "" : an.mode()) {
+                case "lock-in" -> " warmed and cooled in step with the test current, which was switched on and off,"
+                        + " more strongly than every other part.";
+                case "compare" -> " warmed more than every other part between an image taken before and one taken"
+                        + " while a limited current was fed into the board.";
+                default -> " warmed up faster than every other part while a limited current was fed into the board.";
+            };
+            return "The part marked " + an.verdictRef() + what + " That points to " + an.verdictRef()
                     + " as the part that draws the fault current; we recommend replacing it and testing the board again.";
+        }
         if (status.startsWith("no"))
             return "No part warmed measurably while current was fed into the board, so this measurement does not "
                     + "point to a failed part.";
@@ -186,9 +193,13 @@ public final class CustomerReport {
         Matcher m = FIGURE.matcher(html);
         List<String> all = new ArrayList<>();
         while (m.find()) all.add(m.group());
+        // a lock-in report carries the steady report of the same frames after its own: its rise map and curves show
+        // what the lock-in looked past (noise, for a source that heats in pulses), not the finding
+        boolean lockIn = "lock-in".equals(an.mode());
         for (String f : all) {
             Matcher alt = ALT.matcher(f);
             String name = alt.find() ? alt.group(1) : "";
+            if (lockIn && !name.startsWith("Lock-in")) continue;
             String caption = switch (name) {
                 case "Rise map" -> "How much each point of the board warmed during the test, seen from above: the "
                         + "brighter, the warmer. The outlines are the board's parts; rings mark the warmest spots.";

@@ -71,6 +71,20 @@ class CustomerReportTest {
     }
 
     @Test
+    void theFindingIsWordedForHowItWasMeasured() {
+        // a lock-in finding is a part that followed the switched current, not one that warmed fastest; a comparison
+        // has two images, not a rate (the customer reads what was measured, common practice for an inspection report)
+        java.util.function.Function<String, Archive.AnalysisRecord> record = mode -> new Archive.AnalysisRecord(1,
+                "C-5", "s", "2026-12-04T00:00:00Z", "tess", "0.1.0", mode, "{}", "identified", "C9", "h", "r", List.of());
+        assertTrue(CustomerReport.plainWords(record.apply("lock-in")).startsWith(
+                "The part marked C9 warmed and cooled in step with the test current"));
+        assertTrue(CustomerReport.plainWords(record.apply("compare")).startsWith(
+                "The part marked C9 warmed more than every other part between an image taken before"));
+        assertTrue(CustomerReport.plainWords(record.apply("steady")).startsWith(
+                "The part marked C9 warmed up faster than every other part"));
+    }
+
+    @Test
     void theShopComesFromAConfigFileAndAMissingOneIsNamed() throws Exception {
         Path cfg = tmp.resolve("config");
         Map<String, String> env = Map.of("XDG_CONFIG_HOME", cfg.toString());

@@ -21,6 +21,7 @@ import org.risetrace.frame.InputRejected;
 import org.risetrace.io.FrameReaders;
 import org.risetrace.io.ReadContext;
 import org.risetrace.io.Series;
+import org.risetrace.io.Sidecars;
 import org.risetrace.registration.BoardRaster;
 import org.risetrace.registration.Homographies;
 import org.risetrace.registration.Rectifier;
@@ -36,8 +37,10 @@ import java.nio.ByteOrder;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.DirectoryStream;
 import java.nio.file.Files;
+import java.nio.file.LinkOption;
 import java.nio.file.Path;
 import java.nio.file.StandardCopyOption;
+import java.nio.file.attribute.PosixFilePermission;
 import java.time.ZoneOffset;
 import java.time.ZonedDateTime;
 import java.time.format.DateTimeFormatter;
@@ -74,8 +77,10 @@ final class Api {
     private final long maxUploadBytes;
     private final Materials materials = Materials.load();
     private final Path scratch;
-    private final Map<Path, Series> seriesCache = new LinkedHashMap<>(8, 0.75f, true) {
-        @Override protected boolean removeEldestEntry(Map.Entry<Path, Series> e) { return size() > 4; }
+    /** What a new folder gets here (the umask applied to 0777); null without POSIX permissions. */
+    private final Set<PosixFilePermission> newFolderPermissions;
+    private final Map<Path, Listed> seriesCache = new LinkedHashMap<>(8, 0.75f, true) {
+        @Override protected boolean removeEldestEntry(Map.Entry<Path, Listed> e) { return size() > 4; }
     };
     private final Map<Path, Long> seriesStamp = new java.util.HashMap<>();
 
@@ -88,6 +93,7 @@ final class Api {
         this.maxUploadBytes = maxUploadBytes;
         this.scratch = Files.createTempDirectory("risetrace-web-");
         scratch.toFile().deleteOnExit();
+        this.newFolderPermissions = RootFiles.newFolderPermissions(scratch);
     }
 
     /** What the page needs once: roots, materials, the colour table, the safety notes. */
@@ -163,9 +169,9 @@ final class Api {
                 }
                 if (!real.startsWith(roots.root(root))) continue; // a link out is not offered
                 folders.add(Map.of("name", name, "path", roots.relative(root, real), "frames", countFrames(real),
-                        "board", Files.isRegularFile(real.resolve(BOARD_FILE))));
-            } else if (FrameReaders.isImageFile(p) && !name.equalsIgnoreCase(Series.BENCH_READINGS_FILE)) frames++;
-            else if (name.equals(BOARD_FILE)) board = true;
+                        "board", RootFiles.isRegular(real.resolve(BOARD_FILE))));
+            } else if (isFrameFile(p)) frames++;
+            else if (name.equals(BOARD_FILE) && RootFiles.isRegular(p)) board = true;
         }
         Map<String, Object> m = new LinkedHashMap<>();
         m.put("root", root);
@@ -180,7 +186,7 @@ final class Api {
         int n = 0;
         try (DirectoryStream<Path> ds = Files.newDirectoryStream(dir)) {
             for (Path p : ds) {
-                if (FrameReaders.isImageFile(p) && !p.getFileName().toString().startsWith(".")) n++;
+                if (!p.getFileName().toString().startsWith(".") && isFrameFile(p)) n++;
                 if (n >= 100_000) break;
             }
         } catch (IOException e) {
@@ -189,26 +195,81 @@ final class Api {
         return n;
     }
 
+    /** A file the series listing reads as a frame (a symbolic link is not one: see {@link #readSeries}). */
+    private static boolean isFrameFile(Path p) {
+        return FrameReaders.isImageFile(p) && !p.getFileName().toString().equalsIgnoreCase(Series.BENCH_READINGS_FILE)
+                && RootFiles.isRegular(p);
+    }
+
+    /** A series as the workbench reads it, and the symbolic links it skipped (warnings in the core's words). */
+    record Listed(Series series, List<String> skipped) { }
+
     /** A series folder, opened once and kept while its folder is unchanged. */
-    private Series openSeries(Path dir) {
+    private Listed openSeries(Path dir) {
         long stamp;
         try {
             stamp = Files.getLastModifiedTime(dir).toMillis();
-            Path sc = dir.resolve("series.json");
-            if (Files.exists(sc)) stamp = 31 * stamp + Files.getLastModifiedTime(sc).toMillis();
+            Path sc = dir.resolve(Sidecars.FILE_NAME);
+            if (RootFiles.exists(sc))
+                stamp = 31 * stamp + Files.getLastModifiedTime(sc, LinkOption.NOFOLLOW_LINKS).toMillis();
         } catch (IOException e) {
             throw WebError.notFound("cannot read the folder");
         }
         synchronized (seriesCache) {
-            Series s = seriesCache.get(dir);
+            Listed s = seriesCache.get(dir);
             if (s != null && Long.valueOf(stamp).equals(seriesStamp.get(dir))) return s;
         }
-        Series s = Series.open(dir, null, ReadContext.DEFAULT_MAX_PIXELS);
+        Listed s = readSeries(dir);
         synchronized (seriesCache) {
             seriesCache.put(dir, s);
             seriesStamp.put(dir, stamp);
         }
         return s;
+    }
+
+    /**
+     * The series in a folder as {@code Series.open} reads it, except that a symbolic link to a file is never
+     * followed (its target may lie outside the root): a linked frame (or other file) is skipped with a warning, as
+     * the core skips a FIFO, and a linked series.json is refused, as the core refuses a series.json that is not a
+     * regular file. Links to folders are left out, as the core leaves out folders. A folder without such links is
+     * read by the core itself.
+     */
+    private static Listed readSeries(Path dir) {
+        List<Path> kept = new ArrayList<>();
+        List<String> skipped = new ArrayList<>();
+        try (DirectoryStream<Path> ds = Files.newDirectoryStream(dir)) {
+            for (Path p : ds) {
+                String name = p.getFileName().toString();
+                if (name.startsWith(".")) continue;
+                if (Files.isSymbolicLink(p)) {
+                    if (Files.isDirectory(p)) continue;
+                    if (name.equalsIgnoreCase(Sidecars.FILE_NAME))
+                        throw new InputRejected(p, RootFiles.notRegular(p) + ", not a sidecar file", "copy the file itself in");
+                    skipped.add("skipped " + name + ": " + RootFiles.notRegular(p));
+                } else if (!Files.isDirectory(p, LinkOption.NOFOLLOW_LINKS)) {
+                    kept.add(p);
+                }
+            }
+        } catch (IOException e) {
+            throw WebError.notFound("cannot read the folder");
+        }
+        if (skipped.isEmpty()) return new Listed(Series.open(dir, null, ReadContext.DEFAULT_MAX_PIXELS), List.of());
+        skipped.sort(org.risetrace.io.NaturalOrder.INSTANCE);
+        if (kept.isEmpty())
+            throw new InputRejected(dir, "no frame files", "the folder holds only symbolic links, which the workbench does not follow");
+        return new Listed(Series.open(kept, null, null, ReadContext.DEFAULT_MAX_PIXELS), List.copyOf(skipped));
+    }
+
+    /**
+     * board.json beside a series for reading: a regular file, or 422 (missing: save one first; a symbolic link, a
+     * FIFO or a folder: named, never followed or waited on).
+     */
+    private static Path savedBoard(Path dir) {
+        Path f = dir.resolve(BOARD_FILE);
+        if (RootFiles.isRegular(f)) return f;
+        if (!RootFiles.exists(f))
+            throw new WebError(422, "no " + BOARD_FILE + " beside the series yet: mark the outline and parts, then save");
+        throw new WebError(422, BOARD_FILE + ": " + RootFiles.notRegular(f) + "; replace it with the file itself");
     }
 
     private Path seriesFolder(WorkbenchServer.Request r) {
@@ -221,7 +282,8 @@ final class Api {
     private Map<String, Object> series(WorkbenchServer.Request r) {
         int root = Roots.index(r.param("root"));
         Path dir = seriesFolder(r);
-        Series s = openSeries(dir);
+        Listed listed = openSeries(dir);
+        Series s = listed.series();
         List<Map<String, Object>> frames = new ArrayList<>();
         for (int i = 0; i < s.size(); i++) frames.add(Map.of("i", i, "name", s.fileName(i), "t_s", s.tSeconds(i)));
         Frame first = s.read(0);
@@ -236,9 +298,12 @@ final class Api {
         m.put("time_source", s.timeSource());
         List<String> warnings = new ArrayList<>();
         for (String w : s.warnings()) warnings.add(roots.redact(w));
+        warnings.addAll(listed.skipped());
         m.put("warnings", warnings);
         Path boardFile = dir.resolve(BOARD_FILE);
-        if (Files.isRegularFile(boardFile)) {
+        if (RootFiles.exists(boardFile) && !RootFiles.isRegular(boardFile)) {
+            m.put("board_error", BOARD_FILE + ": " + RootFiles.notRegular(boardFile));
+        } else if (RootFiles.isRegular(boardFile)) {
             try {
                 Board b = BoardFile.readWithoutOutline(boardFile, materials.names());
                 m.put("board", JSON_TREE.valueToTree(b));
@@ -255,7 +320,7 @@ final class Api {
     /** A frame's temperatures as little-endian float32, row by row; size and range in headers. */
     private void frame(WorkbenchServer.Request r) throws IOException {
         Path dir = seriesFolder(r);
-        Series s = openSeries(dir);
+        Series s = openSeries(dir).series();
         int i = r.intParam("i", 0, s.size() - 1);
         Frame f = s.read(i);
         sendRaster(r, f.width(), f.height(), f.celsius(), null, Map.of("X-Frame-Name", asciiHeader(s.fileName(i))));
@@ -315,7 +380,7 @@ final class Api {
     private void rectify(WorkbenchServer.Request r) throws IOException {
         Path dir = seriesFolder(r);
         Board b = checkedBoard(r.body(WorkbenchServer.MAX_DOCUMENT_BYTES));
-        Series s = openSeries(dir);
+        Series s = openSeries(dir).series();
         Frame f = s.read(frameIndex(s, b));
         double px = Rectifier.defaultPxPerMm(b);
         double area = b.widthMm() * b.heightMm();
@@ -327,27 +392,36 @@ final class Api {
     }
 
     /**
-     * Saves board.json beside the series: checked first; an existing file is copied to
-     * board.bak-&lt;UTC time&gt;.json (the series reader skips .json files), then the new file is written to a
-     * hidden temporary file in the same folder and moved over board.json in one step.
+     * Saves board.json beside the series: checked first; an existing board.json must be a regular file (a FIFO
+     * would block the backup's read forever, a folder cannot be replaced, a symbolic link may lead out of the
+     * root: 409, nothing written); it is copied to board.bak-&lt;UTC time&gt;.json (the series reader skips .json
+     * files), then the new file is written to a hidden temporary file in the same folder, given the old file's
+     * permissions (a new file keeps what any new file gets here) and moved over board.json in one step.
      */
     private Map<String, Object> saveBoard(WorkbenchServer.Request r) throws IOException {
         int root = Roots.index(r.param("root"));
         Path dir = seriesFolder(r);
         Board b = checkedBoard(r.body(WorkbenchServer.MAX_DOCUMENT_BYTES));
-        frameIndex(openSeries(dir), b);
+        frameIndex(openSeries(dir).series(), b);
         Path file = dir.resolve(BOARD_FILE);
+        boolean replacing = RootFiles.exists(file);
+        if (replacing && !RootFiles.isRegular(file))
+            throw new WebError(409, BOARD_FILE + " in '" + roots.relative(root, dir) + "' is " + RootFiles.notRegular(file)
+                    + "; nothing was saved: remove it or replace it with the file itself");
         String backup = null;
-        if (Files.exists(file)) {
+        Set<PosixFilePermission> permissions = null;
+        if (replacing) {
+            permissions = RootFiles.permissions(file);
             String stamp = ZonedDateTime.now(ZoneOffset.UTC).format(STAMP);
             Path bak = dir.resolve("board.bak-" + stamp + ".json");
-            for (int n = 2; Files.exists(bak); n++) bak = dir.resolve("board.bak-" + stamp + "-" + n + ".json");
-            Files.copy(file, bak, StandardCopyOption.COPY_ATTRIBUTES);
+            for (int n = 2; RootFiles.exists(bak); n++) bak = dir.resolve("board.bak-" + stamp + "-" + n + ".json");
+            Files.copy(file, bak, StandardCopyOption.COPY_ATTRIBUTES, LinkOption.NOFOLLOW_LINKS);
             backup = bak.getFileName().toString();
         }
-        Path tmp = Files.createTempFile(dir, ".board-", ".tmp");
+        Path tmp = RootFiles.newTemporary(dir, "board");
         try {
             Files.writeString(tmp, BoardFile.toJson(b) + "\n", StandardCharsets.UTF_8);
+            RootFiles.setPermissions(tmp, permissions);
             try {
                 Files.move(tmp, file, StandardCopyOption.ATOMIC_MOVE, StandardCopyOption.REPLACE_EXISTING);
             } catch (java.nio.file.AtomicMoveNotSupportedException e) {
@@ -414,13 +488,11 @@ final class Api {
     /** What a finished analysis leaves for the page. */
     record Finished(int root, String seriesPath, Analysis analysis, String analysisJson, Path outDir) { }
 
-    private Map<String, Object> analyse(WorkbenchServer.Request r) {
+    private Map<String, Object> analyse(WorkbenchServer.Request r) throws IOException {
         int root = Roots.index(r.param("root"));
         Path dir = seriesFolder(r);
-        Path boardFile = dir.resolve(BOARD_FILE);
-        if (!Files.isRegularFile(boardFile))
-            throw new WebError(422, "no " + BOARD_FILE + " beside the series yet: mark the outline and parts, then save");
-        Series s = Series.open(dir, null, ReadContext.DEFAULT_MAX_PIXELS);
+        Path boardFile = savedBoard(dir);
+        Series s = readSeries(dir).series();
         Board b;
         try {
             b = BoardFile.read(boardFile, materials.names());
@@ -432,7 +504,18 @@ final class Api {
         Path out = roots.root(root).resolve(OUTPUT_FOLDER).resolve(rel.isEmpty() ? "series" : rel);
         Path outReal = out.normalize();
         if (!outReal.startsWith(roots.root(root))) throw WebError.forbidden("output folder leaves the root");
+        // the part of it that exists already (risetrace-out, say) must not lead out through a symbolic link
+        for (Path p = outReal; p.startsWith(roots.root(root)); p = p.getParent()) {
+            if (!RootFiles.exists(p)) continue;
+            if (!p.toRealPath().startsWith(roots.root(root)))
+                throw WebError.forbidden("'" + roots.relative(root, p) + "' leads outside the root (a symbolic link)");
+            break;
+        }
         String notes = s.sidecar() == null ? null : s.sidecar().notes();
+        // the results' folder is made fresh (OutputFolder renames a private staging folder into place): it gets the
+        // permissions of the folder it replaces, or what any new folder gets here
+        Set<PosixFilePermission> outPermissions = Files.isDirectory(out, LinkOption.NOFOLLOW_LINKS)
+                ? RootFiles.permissions(out) : newFolderPermissions;
         Jobs.Job job = jobs.submit(rel, j -> {
             Analyzer.Progress progress = (done, total) -> {
                 j.done = done;
@@ -444,14 +527,24 @@ final class Api {
                 LockIn li = LockInAnalyzer.analyze(s, b, boardFile, label, options,
                         SeriesAnalyzer.emissivity(s.profile()), SeriesAnalyzer.defaultThreads(), progress);
                 LockInReport.writeAll(li, out, notes, true);
+                outputPermissions(out, outPermissions);
                 return new Finished(root, rel, li.steady(), LockInReport.toJson(li), out);
             }
             Analysis a = SeriesAnalyzer.analyzeOrCompare(s, b, boardFile, label, options,
                     SeriesAnalyzer.defaultThreads(), progress);
             Reports.writeAll(a, out, notes, true);
+            outputPermissions(out, outPermissions);
             return new Finished(root, rel, a, AnalysisJson.toJson(a.result()), out);
         }, this::errorLine);
         return Map.of("job", job.id);
+    }
+
+    private static void outputPermissions(Path out, Set<PosixFilePermission> permissions) {
+        try {
+            RootFiles.setPermissions(out, permissions);
+        } catch (IOException e) {
+            throw new java.io.UncheckedIOException(e);
+        }
     }
 
     private String errorLine(Throwable t) {
@@ -543,15 +636,13 @@ final class Api {
         }
         if (q == null || q.before() == null || q.after() == null)
             throw WebError.badRequest("body must be {\"before\": frame index, \"after\": frame index}");
-        Series s = openSeries(dir);
+        Series s = openSeries(dir).series();
         for (int i : new int[]{q.before(), q.after()})
             if (i < 0 || i >= s.size()) throw WebError.badRequest("frame index " + i + " is not in the series (0 to " + (s.size() - 1) + ")");
         if (q.before().equals(q.after())) throw WebError.badRequest("pick two different frames");
         String swapped = s.orderProblem(q.before(), q.after());
         if (swapped != null) throw WebError.badRequest(swapped + ": pick the earlier frame as before");
-        Path boardFile = dir.resolve(BOARD_FILE);
-        if (!Files.isRegularFile(boardFile))
-            throw new WebError(422, "no " + BOARD_FILE + " beside the series yet: mark the outline and parts, then save");
+        Path boardFile = savedBoard(dir);
         Board b;
         try {
             b = BoardFile.read(boardFile, materials.names());
@@ -569,7 +660,11 @@ final class Api {
 
     // ------------------------------------------------------------------------------------------ upload
 
-    /** One frame file (or series.json) into a folder under a root; never over an existing file. */
+    /**
+     * One frame file (or series.json) into a folder under a root; never over an existing file. A series.json is
+     * first read by the core's sidecar reader (a broken one stored would refuse the series and, never replaced,
+     * keep the folder stuck). The new folder and file get what any new folder and file get here.
+     */
     private Map<String, Object> upload(WorkbenchServer.Request r) throws IOException {
         int root = Roots.index(r.param("root"));
         String folderRel = r.required("path");
@@ -582,13 +677,14 @@ final class Api {
                     new java.util.TreeSet<>(FrameReaders.FRAME_EXTENSIONS)) + ") or series.json");
         byte[] body = r.body(maxUploadBytes);
         if (body.length == 0) throw WebError.badRequest("empty file");
+        if (name.equals(Sidecars.FILE_NAME)) checkedSidecar(body);
         Path folder = roots.resolve(root, folderRel, false);
         if (!Files.exists(folder)) Files.createDirectory(folder);
         else if (!Files.isDirectory(folder)) throw WebError.badRequest("'" + folderRel + "' is not a folder");
         Path target = folder.resolve(name);
         if (Files.exists(target, java.nio.file.LinkOption.NOFOLLOW_LINKS))
             throw new WebError(409, "'" + name + "' already exists in '" + folderRel + "'; nothing was replaced");
-        Path tmp = Files.createTempFile(folder, ".upload-", ".tmp");
+        Path tmp = RootFiles.newTemporary(folder, "upload");
         try {
             Files.write(tmp, body);
             try {
@@ -600,5 +696,18 @@ final class Api {
             Files.deleteIfExists(tmp);
         }
         return Map.of("saved", roots.relative(root, target), "bytes", body.length);
+    }
+
+    /** A series.json through the core's sidecar reader (via a private scratch file, as board files are checked). */
+    private void checkedSidecar(byte[] json) throws IOException {
+        Path tmp = Files.createTempFile(scratch, "series", ".json");
+        try {
+            Files.write(tmp, json);
+            Sidecars.load(tmp);
+        } catch (InputRejected e) {
+            throw new WebError(422, Sidecars.FILE_NAME + ": " + e.reason() + (e.hint() == null ? "" : " (" + e.hint() + ")"));
+        } finally {
+            Files.deleteIfExists(tmp);
+        }
     }
 }

@@ -357,13 +357,7 @@ class WorkbenchApiTest {
         HttpResponse<String> start = wb.post("/api/analyse?root=0&path=phase-short", "");
         assertEquals(202, start.statusCode(), start.body());
         String id = WorkbenchFixture.JSON.readTree(start.body()).get("job").asText();
-        JsonNode job;
-        long until = System.nanoTime() + 180_000_000_000L;
-        do {
-            Thread.sleep(300);
-            job = WorkbenchFixture.JSON.readTree(wb.get("/api/job?id=" + id).body());
-            assertTrue(System.nanoTime() < until, "analysis did not finish: " + job);
-        } while (!job.get("state").asText().matches("done|failed"));
+        JsonNode job = wb.awaitJob(id, 180);
         assertEquals("done", job.get("state").asText(), job.toString());
         assertEquals(90, job.get("total").asInt());
         JsonNode file = WorkbenchFixture.JSON.readTree(root.resolve("risetrace-out/phase-short/analysis.json").toFile());

@@ -287,13 +287,7 @@ class WorkbenchFilesTest {
             HttpResponse<String> start = post("/api/analyse?root=0&path=perms-analyse", "");
             assertEquals(202, start.statusCode(), start.body());
             String id = WorkbenchFixture.JSON.readTree(start.body()).get("job").asText();
-            JsonNode job;
-            long until = System.nanoTime() + 120_000_000_000L;
-            do {
-                Thread.sleep(200);
-                job = WorkbenchFixture.JSON.readTree(get("/api/job?id=" + id).body());
-                assertTrue(System.nanoTime() < until, "analysis did not finish: " + job);
-            } while (!job.get("state").asText().matches("done|failed"));
+            JsonNode job = wb.awaitJob(id, 120);
             assertEquals("done", job.get("state").asText(), job.toString());
             Path out = root.resolve("risetrace-out/perms-analyse");
             // the output folder is readable as any new folder is (not the 0700 of a staging folder), also when replaced

@@ -75,6 +75,18 @@ final class WorkbenchFixture implements AutoCloseable {
         return post(pathAndQuery, body.getBytes(java.nio.charset.StandardCharsets.UTF_8));
     }
 
+    /** The job's state once it is done or failed, polled every 200 ms; the test fails after timeoutS seconds. */
+    JsonNode awaitJob(String id, long timeoutS) throws Exception {
+        long until = System.nanoTime() + timeoutS * 1_000_000_000L;
+        JsonNode job;
+        do {
+            Thread.sleep(200);
+            job = JSON.readTree(get("/api/job?id=" + id).body());
+            org.junit.jupiter.api.Assertions.assertTrue(System.nanoTime() < until, "analysis did not finish: " + job);
+        } while (!job.get("state").asText().matches("done|failed"));
+        return job;
+    }
+
     @Override
     public void close() {
         server.close();

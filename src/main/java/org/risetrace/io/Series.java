@@ -190,17 +190,11 @@ public final class Series implements Iterable<Frame> {
                                 Map<String, Sidecar.FrameEntry> entries, double[] t, Instant[] instants,
                                 List<String> warnings) {
         int n = frames.size();
-        int withT = 0;
-        String missing = null;
-        for (Path f : frames) {
-            Sidecar.FrameEntry e = entries.get(f.getFileName().toString());
-            if (e != null && e.tS() != null) withT++;
-            else if (missing == null) missing = f.getFileName().toString();
-        }
-        if (withT > 0) {
-            if (withT < n)
-                throw new InputRejected(sidecarFile, "frame " + missing + " has no t_s while " + withT
-                        + " other frames have one", "give every frame a t_s under \"frames\", or none");
+        PerFrame withT = PerFrame.count(frames, entries, e -> e.tS() != null);
+        if (withT.with() > 0) {
+            if (withT.with() < n)
+                throw new InputRejected(sidecarFile, "frame " + withT.firstWithout() + " has no t_s while "
+                        + withT.with() + " other frames have one", "give every frame a t_s under \"frames\", or none");
             for (int i = 0; i < n; i++) t[i] = entries.get(frames.get(i).getFileName().toString()).tS();
             checkRising(frames, t, sidecarFile, "t_s");
             // the sidecar's times rule, but the absolute capture time the files carry is still worth reporting
@@ -247,6 +241,21 @@ public final class Series implements Iterable<Frame> {
         return "file-name order";
     }
 
+    /** How many frames' sidecar entries give a field, and the first frame whose entry does not. */
+    private record PerFrame(int with, String firstWithout) {
+        static PerFrame count(List<Path> frames, Map<String, Sidecar.FrameEntry> entries,
+                              java.util.function.Predicate<Sidecar.FrameEntry> gives) {
+            int with = 0;
+            String missing = null;
+            for (Path f : frames) {
+                Sidecar.FrameEntry e = entries.get(f.getFileName().toString());
+                if (e != null && gives.test(e)) with++;
+                else if (missing == null) missing = f.getFileName().toString();
+            }
+            return new PerFrame(with, missing);
+        }
+    }
+
     /**
      * Spans of greyscale frames: per frame for every frame or for none (an auto-ranging camera changes its span
      * from frame to frame, so a frame without its own would be read on another span, silently); and where they come
@@ -255,17 +264,12 @@ public final class Series implements Iterable<Frame> {
      */
     private static void checkSpans(List<Path> frames, Sidecar sidecar, Path sidecarFile,
                                    Map<String, Sidecar.FrameEntry> entries, Profile profile, List<String> warnings) {
-        int withSpan = 0;
-        String missing = null;
-        for (Path f : frames) {
-            Sidecar.FrameEntry e = entries.get(f.getFileName().toString());
-            if (e != null && e.spanC() != null) withSpan++;
-            else if (missing == null) missing = f.getFileName().toString();
-        }
-        if (withSpan > 0 && withSpan < frames.size() && sidecar.spanC() == null)
-            throw new InputRejected(sidecarFile, "frame " + missing + " has no span_c while " + withSpan
-                    + " other frames have one", "give every frame its span_c under \"frames\", or a span_c for all");
-        if (withSpan == 0 && sidecar.spanC() == null && profile != null && "span".equals(profile.encoding())
+        PerFrame withSpan = PerFrame.count(frames, entries, e -> e.spanC() != null);
+        if (withSpan.with() > 0 && withSpan.with() < frames.size() && sidecar.spanC() == null)
+            throw new InputRejected(sidecarFile, "frame " + withSpan.firstWithout() + " has no span_c while "
+                    + withSpan.with() + " other frames have one",
+                    "give every frame its span_c under \"frames\", or a span_c for all");
+        if (withSpan.with() == 0 && sidecar.spanC() == null && profile != null && "span".equals(profile.encoding())
                 && profile.spanC() != null)
             warnings.add(String.format(Locale.ROOT, "no span_c in %s: greyscale frames read on the profile %s's span"
                             + " %.4g to %.4g \u00b0C (set span_c in series.json to the span the camera showed)",

@@ -83,7 +83,7 @@ public final class CompareCommand implements Callable<Integer> {
         }
         if (output.json) spec.commandLine().getOut().println(AnalyzeCommand.toJson(a));
         else {
-            spec.commandLine().getOut().println(AnalyzeCommand.line(after.getFileName() + " vs " + before.getFileName(),
+            spec.commandLine().getOut().println(AnalyzeCommand.line(before.getFileName() + " -> " + after.getFileName(),
                     a.result().verdict()));
             spec.commandLine().getOut().println("report: " + dir.resolve("report.html"));
         }
@@ -97,7 +97,14 @@ public final class CompareCommand implements Callable<Integer> {
             if (!Files.isRegularFile(p)) throw new InputRejected(p, "frame file not found");
         Path folder = before.toAbsolutePath().getParent();
         Path sidecar = folder.resolve("series.json");
-        Series s = Series.open(List.of(before, after), Files.isRegularFile(sidecar) ? sidecar : null, profile);
+        // a series.json describes the frames of its own folder: applied to a frame from another one it asked for that
+        // frame's t_s and hid what was wrong with it (a cut file named as a missing time)
+        boolean oneFolder = folder.equals(after.toAbsolutePath().getParent());
+        if (!oneFolder && Files.isRegularFile(sidecar))
+            err.println("risetrace: the two frames are in different folders: " + sidecar + " is not used (name the"
+                    + " calibration profile with --profile)");
+        Series s = Series.open(List.of(before, after), oneFolder && Files.isRegularFile(sidecar) ? sidecar : null,
+                profile);
         for (String w : s.warnings()) err.println("risetrace: " + w);
         int ib = s.fileName(0).equals(before.getFileName().toString()) ? 0 : 1;
         String swapped = s.orderProblem(ib, 1 - ib);

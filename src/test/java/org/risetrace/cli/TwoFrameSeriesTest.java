@@ -77,4 +77,19 @@ class TwoFrameSeriesTest {
         assertEquals(1, r.err().lines().count(), r.err());
         assertTrue(Files.notExists(dir.resolve("swapped").resolve("analysis.json")), "nothing written");
     }
+
+    @Test
+    void framesFromTwoFoldersAreReadWithoutTheFirstFoldersSidecar() throws Exception {
+        // the before folder's series.json describes its own frames: applied to a cut frame from another folder it
+        // asked for that frame's t_s, and the message named a missing time instead of the cut file
+        Path other = Files.createDirectories(dir.resolve("other"));
+        byte[] whole = Files.readAllBytes(Path.of("sample-frames", "before-after", "f0002.tif"));
+        Files.write(other.resolve("cut.tif"), java.util.Arrays.copyOf(whole, 5000));
+        InspectCommandTest.Result r = InspectCommandTest.run("compare",
+                Path.of("sample-frames", "before-after", "f0001.tif").toString(), other.resolve("cut.tif").toString(),
+                "--out", dir.resolve("x").toString());
+        assertEquals(Main.EXIT_INPUT_REJECTED, r.code(), r.err());
+        assertTrue(r.err().contains("in different folders") && r.err().contains("cut.tif"), r.err());
+        assertTrue(!r.err().contains("has no t_s"), r.err());
+    }
 }

@@ -34,8 +34,7 @@ public final class LockInAnalyzer {
         if (t.length < 2) return 0;
         double[] d = new double[t.length - 1];
         for (int i = 1; i < t.length; i++) d[i - 1] = t[i] - t[i - 1];
-        java.util.Arrays.sort(d);
-        return d.length % 2 == 1 ? d[d.length / 2] : 0.5 * (d[d.length / 2 - 1] + d[d.length / 2]);
+        return PartCurve.median(d, d.length);
     }
 
     /** Fewest whole periods a lock-in analysis accepts. */

@@ -110,8 +110,9 @@ public final class ProfileWriter {
     }
 
     private static void place(Path target, byte[] bytes, boolean force) throws IOException {
-        Path tmp = Files.createTempFile(target.getParent(), "." + target.getFileName(), ".tmp");
+        Path tmp = org.risetrace.frame.TemporaryFiles.beside(target.getParent(), target.getFileName().toString());
         try {
+            if (force) org.risetrace.frame.TemporaryFiles.keepPermissions(target, tmp);
             Files.write(tmp, bytes);
             if (force) Files.move(tmp, target, StandardCopyOption.REPLACE_EXISTING, StandardCopyOption.ATOMIC_MOVE);
             else Files.move(tmp, target); // fails rather than replace a file that appeared meanwhile

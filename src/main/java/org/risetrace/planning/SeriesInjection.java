@@ -74,7 +74,8 @@ public final class SeriesInjection {
         try {
             byte[] bytes = (JSON.writerWithDefaultPrettyPrinter().writeValueAsString(root) + "\n")
                     .getBytes(StandardCharsets.UTF_8);
-            tmp = Files.createTempFile(seriesFolder, ".series.json.", ".tmp");
+            tmp = org.risetrace.frame.TemporaryFiles.beside(seriesFolder, "series.json");
+            if (existed) org.risetrace.frame.TemporaryFiles.keepPermissions(file, tmp);
             Files.write(tmp, bytes);
             planOf(Sidecars.load(tmp).injection(), tmp); // the new file must read back; a failure here is our bug
             if (existed) Files.copy(file, seriesFolder.resolve(BACKUP_FILE), StandardCopyOption.REPLACE_EXISTING);

@@ -76,7 +76,7 @@ public final class OutputFolder {
         Path staging;
         try {
             Files.createDirectories(parent);
-            staging = Files.createTempDirectory(parent, "." + name + NEW);
+            staging = newStaging(parent, name, dir);
         } catch (IOException e) {
             throw new InputRejected(outDir, "cannot create the output folder: " + message(e));
         }
@@ -143,6 +143,28 @@ public final class OutputFolder {
         }
         if (Files.exists(dir, LinkOption.NOFOLLOW_LINKS)) for (Path p : old) deleteQuietly(p);
         for (Path p : staged) deleteQuietly(p);
+    }
+
+    /**
+     * The staging folder, made without permissions of its own so that it has what any new folder gets here (0755
+     * under the usual umask 0022; a temporary directory's 0700 left every output folder unreadable to the rest of a
+     * shared bench), or, when it replaces a folder, that folder's permissions.
+     */
+    private static Path newStaging(Path parent, String name, Path replaced) throws IOException {
+        Path staging;
+        for (int attempt = 0; ; attempt++) {
+            try {
+                staging = Files.createDirectory(parent.resolve("." + name + NEW
+                        + Long.toUnsignedString(java.util.concurrent.ThreadLocalRandom.current().nextLong(), 36)));
+                break;
+            } catch (FileAlreadyExistsException e) {
+                if (attempt >= 100) throw e;
+            }
+        }
+        if (Files.isDirectory(replaced, LinkOption.NOFOLLOW_LINKS)
+                && parent.getFileSystem().supportedFileAttributeViews().contains("posix"))
+            Files.setPosixFilePermissions(staging, Files.getPosixFilePermissions(replaced, LinkOption.NOFOLLOW_LINKS));
+        return staging;
     }
 
     private static void writeFlushed(Path file, String text) throws IOException {

@@ -40,7 +40,6 @@ import java.nio.file.Files;
 import java.nio.file.LinkOption;
 import java.nio.file.Path;
 import java.nio.file.StandardCopyOption;
-import java.nio.file.attribute.PosixFilePermission;
 import java.time.ZoneOffset;
 import java.time.ZonedDateTime;
 import java.time.format.DateTimeFormatter;
@@ -77,8 +76,6 @@ final class Api {
     private final long maxUploadBytes;
     private final Materials materials = Materials.load();
     private final Path scratch;
-    /** What a new folder gets here (the umask applied to 0777); null without POSIX permissions. */
-    private final Set<PosixFilePermission> newFolderPermissions;
     private final Map<Path, Listed> seriesCache = new LinkedHashMap<>(8, 0.75f, true) {
         @Override protected boolean removeEldestEntry(Map.Entry<Path, Listed> e) { return size() > 4; }
     };
@@ -93,7 +90,6 @@ final class Api {
         this.maxUploadBytes = maxUploadBytes;
         this.scratch = Files.createTempDirectory("risetrace-web-");
         scratch.toFile().deleteOnExit();
-        this.newFolderPermissions = RootFiles.newFolderPermissions(scratch);
     }
 
     /** What the page needs once: roots, materials, the colour table, the safety notes. */
@@ -409,19 +405,17 @@ final class Api {
             throw new WebError(409, BOARD_FILE + " in '" + roots.relative(root, dir) + "' is " + RootFiles.notRegular(file)
                     + "; nothing was saved: remove it or replace it with the file itself");
         String backup = null;
-        Set<PosixFilePermission> permissions = null;
         if (replacing) {
-            permissions = RootFiles.permissions(file);
             String stamp = ZonedDateTime.now(ZoneOffset.UTC).format(STAMP);
             Path bak = dir.resolve("board.bak-" + stamp + ".json");
             for (int n = 2; RootFiles.exists(bak); n++) bak = dir.resolve("board.bak-" + stamp + "-" + n + ".json");
             Files.copy(file, bak, StandardCopyOption.COPY_ATTRIBUTES, LinkOption.NOFOLLOW_LINKS);
             backup = bak.getFileName().toString();
         }
-        Path tmp = RootFiles.newTemporary(dir, "board");
+        Path tmp = org.risetrace.frame.TemporaryFiles.beside(dir, "board");
         try {
             Files.writeString(tmp, BoardFile.toJson(b) + "\n", StandardCharsets.UTF_8);
-            RootFiles.setPermissions(tmp, permissions);
+            org.risetrace.frame.TemporaryFiles.keepPermissions(file, tmp);
             try {
                 Files.move(tmp, file, StandardCopyOption.ATOMIC_MOVE, StandardCopyOption.REPLACE_EXISTING);
             } catch (java.nio.file.AtomicMoveNotSupportedException e) {
@@ -512,10 +506,6 @@ final class Api {
             break;
         }
         String notes = s.sidecar() == null ? null : s.sidecar().notes();
-        // the results' folder is made fresh (OutputFolder renames a private staging folder into place): it gets the
-        // permissions of the folder it replaces, or what any new folder gets here
-        Set<PosixFilePermission> outPermissions = Files.isDirectory(out, LinkOption.NOFOLLOW_LINKS)
-                ? RootFiles.permissions(out) : newFolderPermissions;
         Jobs.Job job = jobs.submit(rel, j -> {
             Analyzer.Progress progress = (done, total) -> {
                 j.done = done;
@@ -527,24 +517,14 @@ final class Api {
                 LockIn li = LockInAnalyzer.analyze(s, b, boardFile, label, options,
                         SeriesAnalyzer.emissivity(s.profile()), SeriesAnalyzer.defaultThreads(), progress);
                 LockInReport.writeAll(li, out, notes, true);
-                outputPermissions(out, outPermissions);
                 return new Finished(root, rel, li.steady(), LockInReport.toJson(li), out);
             }
             Analysis a = SeriesAnalyzer.analyzeOrCompare(s, b, boardFile, label, options,
                     SeriesAnalyzer.defaultThreads(), progress);
             Reports.writeAll(a, out, notes, true);
-            outputPermissions(out, outPermissions);
             return new Finished(root, rel, a, AnalysisJson.toJson(a.result()), out);
         }, this::errorLine);
         return Map.of("job", job.id);
-    }
-
-    private static void outputPermissions(Path out, Set<PosixFilePermission> permissions) {
-        try {
-            RootFiles.setPermissions(out, permissions);
-        } catch (IOException e) {
-            throw new java.io.UncheckedIOException(e);
-        }
     }
 
     private String errorLine(Throwable t) {
@@ -684,7 +664,7 @@ final class Api {
         Path target = folder.resolve(name);
         if (Files.exists(target, java.nio.file.LinkOption.NOFOLLOW_LINKS))
             throw new WebError(409, "'" + name + "' already exists in '" + folderRel + "'; nothing was replaced");
-        Path tmp = RootFiles.newTemporary(folder, "upload");
+        Path tmp = org.risetrace.frame.TemporaryFiles.beside(folder, "upload");
         try {
             Files.write(tmp, body);
             try {

@@ -50,6 +50,22 @@ class OutputFolderTest {
     private static Analysis second() { return SECOND; }
 
     @Test
+    void theOutputFolderHasTheUsualPermissionsOrTheReplacedOnes(@TempDir Path tmp) throws IOException {
+        // a results folder is for the whole bench to read (common practice: shared benches): a new one gets what a
+        // folder made here gets (0755 under umask 0022; the staging's temporary directory gave 0700), a replaced
+        // one keeps its own
+        org.junit.jupiter.api.Assumptions.assumeTrue(tmp.getFileSystem().supportedFileAttributeViews().contains("posix"));
+        var usual = Files.getPosixFilePermissions(Files.createDirectory(tmp.resolve("probe")));
+        Path out = tmp.resolve("out");
+        Reports.writeAll(first(), out, null, false);
+        assertEquals(usual, Files.getPosixFilePermissions(out));
+        var chosen = java.nio.file.attribute.PosixFilePermissions.fromString("rwxr-x---");
+        Files.setPosixFilePermissions(out, chosen);
+        Reports.writeAll(second(), out, null, true);
+        assertEquals(chosen, Files.getPosixFilePermissions(out));
+    }
+
+    @Test
     void anEarlierAnalysisIsKeptWithoutReplace(@TempDir Path tmp) throws IOException {
         Path out = tmp.resolve("out");
         Reports.writeAll(first(), out, null, false);

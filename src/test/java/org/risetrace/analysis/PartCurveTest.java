@@ -67,8 +67,8 @@ class PartCurveTest {
 
     @Test
     void theRateWindowRecordedIsTheOneFitted() {
-        // frames every 0.5 s from 0 to 19.5 s, injection at 5 s: a 3.5 s window holds the 7 frames at 5.5-8.5 s and
-        // is widened to min_rate_frames (12): 5.5-11 s, recorded as 6 s after the start (not 3.5)
+        // counted by hand: frames every 0.5 s from 0 to 19.5 s, injection at 5 s: a 3.5 s window holds the 7 frames
+        // at 5.5-8.5 s and is widened to min_rate_frames (12): 5.5-11 s, recorded as 6 s after the start (not 3.5)
         double[] t = new double[40];
         for (int i = 0; i < t.length; i++) t[i] = 0.5 * i;
         int[] span = PartCurve.rateSpan(t, 5.0, 3.5, 12);

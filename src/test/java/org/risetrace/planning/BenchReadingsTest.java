@@ -83,7 +83,8 @@ class BenchReadingsTest {
 
     @Test
     void anOutlierWrittenWithACoarsePrefixDoesNotSetTheFloor() {
-        // "1 kohm" among "1 ohm" readings is the same value as "1000 ohm": by hand MAD of 1, 1, 1000 (ohm) is 0,
+        // "1 kohm" among "1 ohm" readings is the same value as "1000 ohm" (SI prefix k = 1000): by hand, with the
+        // modified z-score of Iglewicz and Hoaglin (1993) as above, MAD of 1, 1, 1000 (ohm) is 0,
         // floored at a quarter of the typical 1 ohm step, 0.25; modified z = 0.6745 x 999 / 0.25 = 2695.3. With the
         // coarsest step (1 kohm) as the floor it read 2.7 and hid
         for (String[] w : new String[][]{{"1000", "ohm"}, {"1", "kohm"}}) {
